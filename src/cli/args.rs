@@ -23,7 +23,14 @@ impl fmt::Display for CliError {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self {
             CliError::Usage(text) | CliError::File(text) => write!(f, "{text}"),
-            CliError::Input(error) => write!(f, "--{}", error.to_string().replace('_', "-")),
+            // A command-line field is a flag: show it as the user typed it.
+            CliError::Input(error) => write!(
+                f,
+                "--{} = {} is not accepted: valid is {}",
+                error.field.replace('_', "-"),
+                error.value,
+                error.valid
+            ),
             CliError::Inputs(errors) => {
                 let lines: Vec<String> = errors.iter().map(ToString::to_string).collect();
                 write!(f, "{}", lines.join("; "))

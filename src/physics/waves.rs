@@ -48,6 +48,17 @@ pub fn checked_frequency_hz(freq_mhz: f64) -> Result<f64, InputError> {
     require_positive("freq_mhz", freq_mhz, FREQUENCY_MAX_HZ / 1e6).map(|f| f * 1e6)
 }
 
+/// Checked entry point for user input: frequency in MHz and the two parts of the permittivity.
+pub fn wave_properties_checked(
+    freq_mhz: f64,
+    eps_real: f64,
+    eps_imag: f64,
+) -> Result<WaveProperties, InputError> {
+    let frequency_hz = checked_frequency_hz(freq_mhz)?;
+    let eps = ComplexPermittivity::checked(eps_real, eps_imag)?;
+    Ok(wave_properties(frequency_hz, eps))
+}
+
 /// Field attenuation constant alpha, Np/m (exact, any loss).
 pub fn attenuation_np_per_m(frequency_hz: f64, eps: ComplexPermittivity) -> f64 {
     let k0 = 2.0 * PI * frequency_hz / SPEED_OF_LIGHT_M_PER_S;

@@ -1,0 +1,5 @@
+//! Integration tests: one binary, one module per subject (links once instead of once per file).
+
+mod cli_dielectric;
+mod physics_properties;
+mod support;
