@@ -8,3 +8,4 @@
 
 pub mod error;
 pub mod physics;
+pub mod sizing;
