@@ -4,5 +4,6 @@ pub mod bands;
 pub mod complex;
 pub mod constants;
 pub mod heating;
+pub mod layers;
 pub mod permittivity;
 pub mod waves;

@@ -25,6 +25,7 @@ pub trait ProductThermal {
 
 /// Loss allowances, each in percent.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(default, deny_unknown_fields)]
 pub struct LossAllowances {
     /// Convection and radiation from the product surface, % of the process heat.
     pub surface_pct: f64,
@@ -32,6 +33,17 @@ pub struct LossAllowances {
     pub belt_pct: f64,
     /// Exhaust air and vapour superheat, % of the evaporation heat.
     pub vapour_pct: f64,
+}
+
+impl Default for LossAllowances {
+    /// Starting allowances: 5 % surface, 2 % belt, 10 % vapour (common practice).
+    fn default() -> Self {
+        Self {
+            surface_pct: 5.0,
+            belt_pct: 2.0,
+            vapour_pct: 10.0,
+        }
+    }
 }
 
 impl LossAllowances {

@@ -14,6 +14,7 @@ const COOLING_WATER_CP_KJ_PER_KG_K: f64 = 4.1819;
 
 /// Site figures from the scenario.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(default, deny_unknown_fields)]
 pub struct SiteInput {
     /// Power factor of the line at the supply, 0.5 to 1.
     pub power_factor: f64,
@@ -27,6 +28,21 @@ pub struct SiteInput {
     pub operating_hours_per_year: f64,
     /// Conveyor, fans, pumps and controls, kW from the mains.
     pub auxiliary_kw: f64,
+}
+
+impl Default for SiteInput {
+    /// Starting figures for a quote: PF 0.95, 10 K cooling-water rise, 0.15 per kWh, 4000 h/year,
+    /// no auxiliaries (common practice; the user replaces them with the site's own).
+    fn default() -> Self {
+        Self {
+            power_factor: 0.95,
+            cooling_water_rise_k: 10.0,
+            tariff_per_kwh: 0.15,
+            currency: "EUR".to_string(),
+            operating_hours_per_year: 4000.0,
+            auxiliary_kw: 0.0,
+        }
+    }
 }
 
 impl SiteInput {
