@@ -4,11 +4,12 @@
 mod args;
 mod bands;
 mod dielectric;
+mod layers;
 
 use args::CliError;
 
 /// The one-line usage summary, shown for an unknown or missing subcommand.
-const USAGE: &str = "usage: doubleprime <dielectric|bands> [options]; see README.md";
+const USAGE: &str = "usage: doubleprime <dielectric|bands|layers|plan|compare> [options]; see README.md";
 
 /// Run one command line (without the program name) and return what to print on stdout.
 pub fn run(args: &[String]) -> Result<String, CliError> {
@@ -18,6 +19,7 @@ pub fn run(args: &[String]) -> Result<String, CliError> {
     match command.as_str() {
         "dielectric" => dielectric::run(rest),
         "bands" => bands::run(rest),
+        "layers" => layers::run(rest),
         "--help" | "-h" | "help" => Ok(USAGE.to_string()),
         other => Err(CliError::Usage(format!(
             "unknown subcommand `{other}`; {USAGE}"

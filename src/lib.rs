@@ -8,4 +8,5 @@
 
 pub mod error;
 pub mod physics;
+pub mod safety;
 pub mod sizing;
