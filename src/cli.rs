@@ -3,13 +3,18 @@
 
 mod args;
 mod bands;
+mod compare;
 mod dielectric;
 mod layers;
+mod material;
+mod materials;
+mod plan;
+mod scenario_file;
 
 use args::CliError;
 
 /// The one-line usage summary, shown for an unknown or missing subcommand.
-const USAGE: &str = "usage: doubleprime <dielectric|bands|layers|plan|compare> [options]; see README.md";
+const USAGE: &str = "usage: doubleprime <dielectric|bands|layers|plan|compare|material|materials> [options]; see README.md";
 
 /// Run one command line (without the program name) and return what to print on stdout.
 pub fn run(args: &[String]) -> Result<String, CliError> {
@@ -19,7 +24,11 @@ pub fn run(args: &[String]) -> Result<String, CliError> {
     match command.as_str() {
         "dielectric" => dielectric::run(rest),
         "bands" => bands::run(rest),
+        "material" => material::run(rest),
+        "materials" => materials::run(rest),
         "layers" => layers::run(rest),
+        "plan" => plan::run(rest),
+        "compare" => compare::run(rest),
         "--help" | "-h" | "help" => Ok(USAGE.to_string()),
         other => Err(CliError::Usage(format!(
             "unknown subcommand `{other}`; {USAGE}"

@@ -7,6 +7,9 @@
 #![deny(clippy::unwrap_used)]
 
 pub mod error;
+pub mod materials;
 pub mod physics;
 pub mod safety;
 pub mod sizing;
+pub mod plan;
+pub mod scenario;

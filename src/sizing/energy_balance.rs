@@ -18,9 +18,9 @@ use serde::{Deserialize, Serialize};
 pub trait ProductThermal {
     /// Specific enthalpy of the wet product at `temp_c` and wet-basis moisture, J/kg, from any
     /// fixed reference, including the latent heat of its frozen water.
-    fn enthalpy_j_per_kg(&self, temp_c: f64, moisture_wb: f64) -> f64;
+    fn enthalpy_j_per_kg(&self, temp_c: f64, moisture_wb: f64) -> Result<f64, InputError>;
     /// Mass of ice per kg of product at `temp_c` and wet-basis moisture.
-    fn ice_mass_fraction(&self, temp_c: f64, moisture_wb: f64) -> f64;
+    fn ice_mass_fraction(&self, temp_c: f64, moisture_wb: f64) -> Result<f64, InputError>;
 }
 
 /// Loss allowances, each in percent.
@@ -121,8 +121,8 @@ pub const LATENT_HEAT_FUSION_J_PER_KG: f64 = 333_420.0;
 const SECONDS_PER_HOUR: f64 = 3600.0;
 
 /// Balance a line. The caller has validated the input (positive throughput, moisture in 0..0.95,
-/// outlet moisture not above inlet).
-pub fn balance(product: &dyn ProductThermal, input: &BalanceInput) -> EnergyBalance {
+/// outlet moisture not above inlet); the product's own checks can still refuse a state.
+pub fn balance(product: &dyn ProductThermal, input: &BalanceInput) -> Result<EnergyBalance, InputError> {
     let m_in = input.throughput_kg_per_h;
     let (x_in, x_out) = (input.inlet_moisture_wb, input.outlet_moisture_wb);
     let drying = x_out < x_in;
@@ -141,7 +141,7 @@ pub fn balance(product: &dyn ProductThermal, input: &BalanceInput) -> EnergyBala
         let t_e = input.evaporation_temp_c;
         let one = to_kw(
             m_in,
-            enthalpy(t_e, x_in) - enthalpy(input.inlet_temp_c, x_in),
+            enthalpy(t_e, x_in)? - enthalpy(input.inlet_temp_c, x_in)?,
         );
         let evaporation = to_kw(
             water_removed_kg_per_h,
@@ -149,7 +149,7 @@ pub fn balance(product: &dyn ProductThermal, input: &BalanceInput) -> EnergyBala
         );
         let three = to_kw(
             product_out_kg_per_h,
-            enthalpy(input.outlet_temp_c, x_out) - enthalpy(t_e, x_out),
+            enthalpy(input.outlet_temp_c, x_out)? - enthalpy(t_e, x_out)?,
         )
         .max(0.0);
         (one, evaporation, three)
@@ -157,15 +157,15 @@ pub fn balance(product: &dyn ProductThermal, input: &BalanceInput) -> EnergyBala
         (
             to_kw(
                 m_in,
-                enthalpy(input.outlet_temp_c, x_in) - enthalpy(input.inlet_temp_c, x_in),
+                enthalpy(input.outlet_temp_c, x_in)? - enthalpy(input.inlet_temp_c, x_in)?,
             ),
             0.0,
             0.0,
         )
     };
 
-    let ice_in = product.ice_mass_fraction(input.inlet_temp_c, x_in) * m_in;
-    let ice_out = product.ice_mass_fraction(input.outlet_temp_c, x_out) * product_out_kg_per_h;
+    let ice_in = product.ice_mass_fraction(input.inlet_temp_c, x_in)? * m_in;
+    let ice_out = product.ice_mass_fraction(input.outlet_temp_c, x_out)? * product_out_kg_per_h;
     let ice_melted_kg_per_h = (ice_in - ice_out).max(0.0);
     let fusion_kw = to_kw(ice_melted_kg_per_h, LATENT_HEAT_FUSION_J_PER_KG);
     let sensible_kw = stage_one_kw + stage_three_kw - fusion_kw;
@@ -177,7 +177,7 @@ pub fn balance(product: &dyn ProductThermal, input: &BalanceInput) -> EnergyBala
     let vapour_loss_kw = evaporation_kw * percent(input.losses.vapour_pct);
     let absorbed_kw = process_kw + surface_loss_kw + belt_loss_kw + vapour_loss_kw;
 
-    EnergyBalance {
+    Ok(EnergyBalance {
         product_out_kg_per_h,
         water_removed_kg_per_h,
         inlet_moisture_db: x_in / (1.0 - x_in),
@@ -192,7 +192,7 @@ pub fn balance(product: &dyn ProductThermal, input: &BalanceInput) -> EnergyBala
         vapour_loss_kw,
         absorbed_kw,
         absorbed_j_per_kg: absorbed_kw * 1000.0 * SECONDS_PER_HOUR / m_in,
-    }
+    })
 }
 
 #[cfg(test)]
@@ -204,12 +204,12 @@ mod tests {
     /// shared/sources.md 7: cp 4.1848 kJ/kg K at 20 degC), linear between 20 and 100 degC.
     struct WaterOnly;
     impl ProductThermal for WaterOnly {
-        fn enthalpy_j_per_kg(&self, temp_c: f64, _moisture_wb: f64) -> f64 {
+        fn enthalpy_j_per_kg(&self, temp_c: f64, _moisture_wb: f64) -> Result<f64, InputError> {
             // h(20 degC) = 83.91 kJ/kg and h(100 degC) = 419.10 kJ/kg (IAPWS-95 saturated liquid, from memory).
-            83_910.0 + (temp_c - 20.0) * (419_100.0 - 83_910.0) / 80.0
+            Ok(83_910.0 + (temp_c - 20.0) * (419_100.0 - 83_910.0) / 80.0)
         }
-        fn ice_mass_fraction(&self, _temp_c: f64, _moisture_wb: f64) -> f64 {
-            0.0
+        fn ice_mass_fraction(&self, _temp_c: f64, _moisture_wb: f64) -> Result<f64, InputError> {
+            Ok(0.0)
         }
     }
 
@@ -234,7 +234,7 @@ mod tests {
             latent_heat_vaporization_j_per_kg: 2_256_470.0,
             losses: no_losses(),
         };
-        let b = balance(&WaterOnly, &input);
+        let b = balance(&WaterOnly, &input).unwrap();
         assert_relative_eq!(b.water_removed_kg_per_h, 204.545_454, max_relative = 1e-6);
         assert_relative_eq!(b.inlet_moisture_db, 0.428_571, max_relative = 1e-5);
         assert_relative_eq!(b.outlet_moisture_db, 0.136_364, max_relative = 1e-5);
@@ -255,7 +255,7 @@ mod tests {
             latent_heat_vaporization_j_per_kg: 2_256_470.0,
             losses: no_losses(),
         };
-        let b = balance(&WaterOnly, &input);
+        let b = balance(&WaterOnly, &input).unwrap();
         assert_relative_eq!(b.water_removed_kg_per_h, 90.0, max_relative = 1e-12);
         // Heating the whole 100 kg/h (here modelled as water) plus evaporating 90 kg/h.
         let expected_kw = (100.0 * (419_100.0 - 83_910.0) + 90.0 * 2_256_470.0) / 3.6e6;
@@ -282,7 +282,7 @@ mod tests {
                 vapour_pct: 50.0,
             },
         };
-        let b = balance(&WaterOnly, &input);
+        let b = balance(&WaterOnly, &input).unwrap();
         // 3600 kg/h x 335.19 kJ/kg = 335.19 kW; +10 % +5 %; no evaporation so no vapour loss.
         assert_relative_eq!(b.process_kw, 335.19, max_relative = 1e-9);
         assert_relative_eq!(b.absorbed_kw, 335.19 * 1.15, max_relative = 1e-9);

@@ -141,6 +141,7 @@ pub enum Redundancy {
     /// Exactly as many units as the load needs.
     N,
     /// One more than needed, kept as standby.
+    #[serde(rename = "n_plus_1")]
     NPlus1,
 }
 
