@@ -1,0 +1,77 @@
+//! No finite or non-finite input makes the public entry points panic or return NaN without an error.
+
+use crate::materials::thermal;
+use crate::materials::{library, permittivity, MaterialState};
+use proptest::prelude::*;
+
+fn any_number() -> impl Strategy<Value = f64> {
+    prop_oneof![
+        Just(f64::NAN),
+        Just(f64::INFINITY),
+        Just(f64::NEG_INFINITY),
+        Just(0.0),
+        Just(-0.0),
+        Just(f64::MAX),
+        Just(f64::MIN_POSITIVE),
+        -1e3..1e3f64,
+        -1e12..1e12f64,
+        0.0..1.0f64,
+        proptest::num::f64::ANY,
+    ]
+}
+
+fn optional_number() -> impl Strategy<Value = Option<f64>> {
+    prop_oneof![Just(None), any_number().prop_map(Some), (0.0..0.95f64).prop_map(Some)]
+}
+
+fn finite_or_error(result: Result<f64, crate::error::InputError>) -> bool {
+    result.map_or(true, f64::is_finite)
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(300))]
+
+    #[test]
+    fn permittivity_never_panics_or_returns_nan(
+        index in 0usize..64,
+        f in prop_oneof![any_number(), 1e6..1e10f64],
+        t in prop_oneof![any_number(), -60.0..300.0f64],
+        m in optional_number(),
+        s in prop_oneof![Just(None), any_number().prop_map(Some), (0.0..26.0f64).prop_map(Some)],
+    ) {
+        let materials: Vec<_> = library().iter().collect();
+        let material = materials[index % materials.len()];
+        let state = MaterialState { temp_c: t, moisture_wb: m, salt_pct: s };
+        if let Ok(lookup) = permittivity(material, f, &state) {
+            prop_assert!(lookup.eps.eps_real.is_finite() && lookup.eps.eps_imag.is_finite());
+            prop_assert!(lookup.eps.eps_imag >= 0.0);
+            for point in &lookup.points_used {
+                prop_assert!(point.weight.is_finite());
+            }
+        }
+        prop_assert!(finite_or_error(material.enthalpy_j_per_kg(t, m)));
+        prop_assert!(finite_or_error(material.specific_heat_j_per_kg_k(t, m)));
+        prop_assert!(finite_or_error(material.frozen_fraction_at(t, m)));
+        prop_assert!(finite_or_error(material.bulk_density_kg_per_m3(m)));
+    }
+
+    #[test]
+    fn thermal_functions_never_panic_or_return_nan(t in any_number(), p in any_number()) {
+        prop_assert!(finite_or_error(thermal::latent_heat_vaporization_j_per_kg(t)));
+        prop_assert!(finite_or_error(thermal::saturation_pressure_pa(t)));
+        prop_assert!(finite_or_error(thermal::saturated_liquid_enthalpy_j_per_kg(t)));
+        prop_assert!(finite_or_error(thermal::boiling_point_c(p)));
+        prop_assert!(finite_or_error(thermal::ice_specific_heat_j_per_kg_k(t)));
+    }
+
+    #[test]
+    fn warnings_never_panic(
+        t0 in any_number(), t1 in -60.0..300.0f64, bed in any_number(), dp in optional_number()
+    ) {
+        let beef = library().get("beef-lean").unwrap();
+        let _ = crate::materials::warnings::runaway_risk(beef, 915e6, &MaterialState::at(t0), &MaterialState::at(t1));
+        if let Ok(check) = crate::materials::warnings::bed_depth_check(dp, bed) {
+            prop_assert!(check.depth_ratio.is_finite() && check.middle_power_ratio_two_sides.is_finite());
+        }
+    }
+}
