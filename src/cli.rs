@@ -14,7 +14,8 @@ mod scenario_file;
 use args::CliError;
 
 /// The one-line usage summary, shown for an unknown or missing subcommand.
-const USAGE: &str = "usage: doubleprime <dielectric|bands|layers|plan|compare|material|materials> [options]; see README.md";
+const USAGE: &str =
+    "usage: doubleprime <dielectric|bands|layers|plan|compare|material|materials> [options]; see README.md";
 
 /// Run one command line (without the program name) and return what to print on stdout.
 pub fn run(args: &[String]) -> Result<String, CliError> {
@@ -30,15 +31,12 @@ pub fn run(args: &[String]) -> Result<String, CliError> {
         "plan" => plan::run(rest),
         "compare" => compare::run(rest),
         "--help" | "-h" | "help" => Ok(USAGE.to_string()),
-        other => Err(CliError::Usage(format!(
-            "unknown subcommand `{other}`; {USAGE}"
-        ))),
+        other => Err(CliError::Usage(format!("unknown subcommand `{other}`; {USAGE}"))),
     }
 }
 
 /// Serialize a result document as pretty JSON. Serialization of our own plain structs cannot
 /// fail; the fallback keeps the contract of one JSON document even so.
 pub fn to_json<T: serde::Serialize>(value: &T) -> String {
-    serde_json::to_string_pretty(value)
-        .unwrap_or_else(|error| format!("{{\"error\": \"{error}\"}}"))
+    serde_json::to_string_pretty(value).unwrap_or_else(|error| format!("{{\"error\": \"{error}\"}}"))
 }

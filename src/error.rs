@@ -19,16 +19,8 @@ pub struct InputError {
 
 impl InputError {
     /// An error for `field` holding `value`, which should have been `valid`.
-    pub fn new(
-        field: impl Into<String>,
-        value: impl fmt::Display,
-        valid: impl Into<String>,
-    ) -> Self {
-        Self {
-            field: field.into(),
-            value: value.to_string(),
-            valid: valid.into(),
-        }
+    pub fn new(field: impl Into<String>, value: impl fmt::Display, valid: impl Into<String>) -> Self {
+        Self { field: field.into(), value: value.to_string(), valid: valid.into() }
     }
 
     /// The same error with its field name prefixed, for nested documents (`product.` + `density`).
@@ -40,11 +32,7 @@ impl InputError {
 
 impl fmt::Display for InputError {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        write!(
-            f,
-            "{} = {} is not accepted: valid is {}",
-            self.field, self.value, self.valid
-        )
+        write!(f, "{} = {} is not accepted: valid is {}", self.field, self.value, self.valid)
     }
 }
 
@@ -78,11 +66,7 @@ pub fn require_positive(field: &str, value: f64, max: f64) -> Result<f64, InputE
     if value.is_finite() && value > 0.0 && value <= max {
         Ok(value)
     } else {
-        Err(InputError::new(
-            field,
-            value,
-            format!("more than 0 and at most {}", short_number(max)),
-        ))
+        Err(InputError::new(field, value, format!("more than 0 and at most {}", short_number(max))))
     }
 }
 

@@ -9,7 +9,7 @@
 pub mod error;
 pub mod materials;
 pub mod physics;
-pub mod safety;
-pub mod sizing;
 pub mod plan;
+pub mod safety;
 pub mod scenario;
+pub mod sizing;

@@ -61,11 +61,7 @@ pub struct MaterialState {
 impl MaterialState {
     /// The nominal product at `temp_c`.
     pub fn at(temp_c: f64) -> Self {
-        Self {
-            temp_c,
-            moisture_wb: None,
-            salt_pct: None,
-        }
+        Self { temp_c, moisture_wb: None, salt_pct: None }
     }
 
     /// Check every field; all problems are returned.
@@ -169,23 +165,12 @@ pub fn permittivity_with_conductivity(
     let frequency_hz = checked_frequency(frequency_hz)?;
     state.checked()?;
     if let Some(sigma) = conductivity_s_per_m {
-        require_in(
-            "conductivity_s_per_m",
-            sigma,
-            0.0,
-            CONDUCTIVITY_MAX_S_PER_M,
-        )?;
-        if !matches!(
-            material.dielectric,
-            DielectricModel::Water { .. } | DielectricModel::Moist { .. }
-        ) {
+        require_in("conductivity_s_per_m", sigma, 0.0, CONDUCTIVITY_MAX_S_PER_M)?;
+        if !matches!(material.dielectric, DielectricModel::Water { .. } | DielectricModel::Moist { .. }) {
             return Err(InputError::new(
                 "conductivity_s_per_m",
                 sigma,
-                format!(
-                    "only for water and moist-model materials ({} has its loss in its data)",
-                    material.name
-                ),
+                format!("only for water and moist-model materials ({} has its loss in its data)", material.name),
             ));
         }
     }
@@ -195,36 +180,19 @@ pub fn permittivity_with_conductivity(
     let value = match &material.dielectric {
         DielectricModel::Water { .. } => {
             ignore_moisture(material, state, &mut notes);
-            models::water_value(
-                frequency_hz,
-                temp_c,
-                state.salt_pct.unwrap_or(0.0) / 100.0,
-                conductivity_s_per_m,
-            )
+            models::water_value(frequency_hz, temp_c, state.salt_pct.unwrap_or(0.0) / 100.0, conductivity_s_per_m)
         }
         DielectricModel::Ice { .. } => {
             ignore_moisture(material, state, &mut notes);
             ignore_salt(material, state, &mut notes);
             models::ice_value(frequency_hz, temp_c)
         }
-        DielectricModel::Constant {
-            eps_real,
-            eps_imag,
-            freq_range_mhz,
-            temp_range_c,
-            source,
-        } => {
+        DielectricModel::Constant { eps_real, eps_imag, freq_range_mhz, temp_range_c, source } => {
             ignore_moisture(material, state, &mut notes);
             ignore_salt(material, state, &mut notes);
             let mut out_of_range = Vec::new();
             let what = "the declared range of this constant value";
-            models::flag_range(
-                &mut out_of_range,
-                "freq_mhz",
-                frequency_hz / 1e6,
-                *freq_range_mhz,
-                what,
-            );
+            models::flag_range(&mut out_of_range, "freq_mhz", frequency_hz / 1e6, *freq_range_mhz, what);
             models::flag_range(&mut out_of_range, "temp_c", temp_c, *temp_range_c, what);
             let source_text = source_text(material, source);
             points_used.push(PointUsed {
@@ -243,18 +211,14 @@ pub fn permittivity_with_conductivity(
                 notes: Vec::new(),
             }
         }
-        DielectricModel::Table {
-            points,
-            nominal_moisture_wb,
-        } => {
+        DielectricModel::Table { points, nominal_moisture_wb } => {
             ignore_salt(material, state, &mut notes);
             let has_moisture = points.iter().any(|p| p.moisture_wb.is_some());
             if !has_moisture {
                 ignore_moisture(material, state, &mut notes);
             }
             let moisture = state.moisture_wb.or(*nominal_moisture_wb);
-            let result =
-                interpolation::interpolate(points, frequency_hz / 1e6, temp_c, moisture);
+            let result = interpolation::interpolate(points, frequency_hz / 1e6, temp_c, moisture);
             for weighted in &result.points {
                 let p = &points[weighted.index];
                 points_used.push(PointUsed {
@@ -283,24 +247,16 @@ pub fn permittivity_with_conductivity(
             conductivity_s_per_m,
         )
         .ok_or_else(|| broken(material))?,
-        DielectricModel::Frozen { .. } => models::frozen_value(
-            material,
-            frequency_hz,
-            temp_c,
-            state.moisture_wb,
-            state.salt_pct,
-        )
-        .ok_or_else(|| broken(material))?,
+        DielectricModel::Frozen { .. } => {
+            models::frozen_value(material, frequency_hz, temp_c, state.moisture_wb, state.salt_pct)
+                .ok_or_else(|| broken(material))?
+        }
     };
     notes.extend(value.notes);
     // Loss can only be zero or positive; a tiny negative value from rounding is shown as zero.
     let eps = ComplexPermittivity::new(value.eps.re, (-value.eps.im).max(0.0));
     if !(eps.eps_real.is_finite() && eps.eps_imag.is_finite() && eps.eps_real > 0.0) {
-        return Err(InputError::new(
-            "temp_c",
-            temp_c,
-            format!("a state {} can be evaluated at", material.name),
-        ));
+        return Err(InputError::new("temp_c", temp_c, format!("a state {} can be evaluated at", material.name)));
     }
     Ok(PermittivityLookup {
         eps,
@@ -314,34 +270,22 @@ pub fn permittivity_with_conductivity(
 }
 
 fn broken(material: &Material) -> InputError {
-    InputError::new(
-        "material",
-        &material.name,
-        "an entry whose dielectric and thermal models fit together",
-    )
+    InputError::new("material", &material.name, "an entry whose dielectric and thermal models fit together")
 }
 
 fn source_text(material: &Material, id: &str) -> String {
-    material
-        .source_by_id(id)
-        .map_or_else(|| id.to_string(), library::Source::summary)
+    material.source_by_id(id).map_or_else(|| id.to_string(), library::Source::summary)
 }
 
 fn ignore_moisture(material: &Material, state: &MaterialState, notes: &mut Vec<String>) {
     if state.moisture_wb.is_some() {
-        notes.push(format!(
-            "moisture_wb ignored: {} has no moisture axis",
-            material.name
-        ));
+        notes.push(format!("moisture_wb ignored: {} has no moisture axis", material.name));
     }
 }
 
 fn ignore_salt(material: &Material, state: &MaterialState, notes: &mut Vec<String>) {
     if state.salt_pct.is_some() {
-        notes.push(format!(
-            "salt_pct ignored: the data of {} already includes its ionic loss",
-            material.name
-        ));
+        notes.push(format!("salt_pct ignored: the data of {} already includes its ionic loss", material.name));
     }
 }
 
@@ -350,9 +294,7 @@ fn checked_temp(temp_c: f64) -> Result<f64, InputError> {
 }
 
 fn checked_moisture(moisture_wb: Option<f64>) -> Result<Option<f64>, InputError> {
-    moisture_wb
-        .map(|m| require_in("moisture_wb", m, 0.0, MOISTURE_MAX_WB))
-        .transpose()
+    moisture_wb.map(|m| require_in("moisture_wb", m, 0.0, MOISTURE_MAX_WB)).transpose()
 }
 
 impl Material {
@@ -377,40 +319,21 @@ impl Material {
                 temp_c: [ice::MODEL_TEMP_MIN_C, ice::MODEL_TEMP_MAX_C],
                 moisture_wb: None,
             },
-            DielectricModel::Constant {
-                freq_range_mhz,
-                temp_range_c,
-                ..
-            } => Ranges {
-                freq_mhz: *freq_range_mhz,
-                temp_c: *temp_range_c,
-                moisture_wb: None,
-            },
+            DielectricModel::Constant { freq_range_mhz, temp_range_c, .. } => {
+                Ranges { freq_mhz: *freq_range_mhz, temp_c: *temp_range_c, moisture_wb: None }
+            }
             DielectricModel::Table { points, .. } => {
                 let has_moisture = points.iter().any(|p| p.moisture_wb.is_some());
                 Ranges {
                     freq_mhz: span(&mut points.iter().map(|p| p.freq_mhz)),
                     temp_c: span(&mut points.iter().map(|p| p.temp_c)),
-                    moisture_wb: has_moisture
-                        .then(|| span(&mut points.iter().filter_map(|p| p.moisture_wb))),
+                    moisture_wb: has_moisture.then(|| span(&mut points.iter().filter_map(|p| p.moisture_wb))),
                 }
             }
-            DielectricModel::Moist {
-                moisture_range_wb,
-                temp_range_c,
-                freq_range_mhz,
-                ..
+            DielectricModel::Moist { moisture_range_wb, temp_range_c, freq_range_mhz, .. }
+            | DielectricModel::Frozen { moisture_range_wb, temp_range_c, freq_range_mhz, .. } => {
+                Ranges { freq_mhz: *freq_range_mhz, temp_c: *temp_range_c, moisture_wb: Some(*moisture_range_wb) }
             }
-            | DielectricModel::Frozen {
-                moisture_range_wb,
-                temp_range_c,
-                freq_range_mhz,
-                ..
-            } => Ranges {
-                freq_mhz: *freq_range_mhz,
-                temp_c: *temp_range_c,
-                moisture_wb: Some(*moisture_range_wb),
-            },
         }
     }
 
@@ -420,10 +343,7 @@ impl Material {
             (ThermalModel::Composition { composition, .. }, _) => Some(composition.water),
             (_, DielectricModel::Moist { moisture_wb, .. }) => Some(*moisture_wb),
             (ThermalModel::DryPlusWater { moisture_wb, .. }, _) => Some(*moisture_wb),
-            (_, DielectricModel::Table {
-                nominal_moisture_wb,
-                ..
-            }) => *nominal_moisture_wb,
+            (_, DielectricModel::Table { nominal_moisture_wb, .. }) => *nominal_moisture_wb,
             _ => None,
         }
     }
@@ -433,21 +353,8 @@ impl Material {
     pub fn bulk_density_kg_per_m3(&self, moisture_wb: Option<f64>) -> Result<f64, InputError> {
         let moisture_wb = checked_moisture(moisture_wb)?;
         Ok(match (&self.dielectric, moisture_wb) {
-            (
-                DielectricModel::Moist {
-                    dry_bulk_density_kg_per_m3,
-                    solid_density_kg_per_m3,
-                    ..
-                },
-                Some(x),
-            ) => {
-                models::moist_fractions(
-                    *dry_bulk_density_kg_per_m3,
-                    *solid_density_kg_per_m3,
-                    x,
-                    20.0,
-                )
-                .3
+            (DielectricModel::Moist { dry_bulk_density_kg_per_m3, solid_density_kg_per_m3, .. }, Some(x)) => {
+                models::moist_fractions(*dry_bulk_density_kg_per_m3, *solid_density_kg_per_m3, x, 20.0).3
             }
             _ => self.density_kg_per_m3,
         })
@@ -457,10 +364,7 @@ impl Material {
     /// `None` for materials whose freezing is not modelled.
     pub fn initial_freezing_point_c(&self) -> Option<f64> {
         match &self.thermal {
-            ThermalModel::Composition {
-                initial_freezing_point_c,
-                ..
-            } => *initial_freezing_point_c,
+            ThermalModel::Composition { initial_freezing_point_c, .. } => *initial_freezing_point_c,
             ThermalModel::Water { .. } | ThermalModel::Ice { .. } => Some(0.0),
             _ => None,
         }
@@ -474,21 +378,11 @@ impl Material {
     }
 
     /// As [`Material::frozen_fraction`] at a moisture other than the nominal one.
-    pub fn frozen_fraction_at(
-        &self,
-        temp_c: f64,
-        moisture_wb: Option<f64>,
-    ) -> Result<f64, InputError> {
+    pub fn frozen_fraction_at(&self, temp_c: f64, moisture_wb: Option<f64>) -> Result<f64, InputError> {
         let temp_c = checked_temp(temp_c)?;
         let moisture_wb = checked_moisture(moisture_wb)?;
         Ok(match &self.thermal {
-            ThermalModel::Ice { .. } => {
-                if temp_c < 0.0 {
-                    1.0
-                } else {
-                    0.0
-                }
-            }
+            ThermalModel::Ice { .. } if temp_c < 0.0 => 1.0,
             ThermalModel::Composition { .. } => match models::food_state(self, moisture_wb) {
                 Some((food, Some(tf))) => freezing::frozen_fraction_of_water(&food, tf, temp_c),
                 _ => 0.0,
@@ -501,11 +395,7 @@ impl Material {
     /// below its freezing point this is the sensible specific heat of the partly frozen mixture
     /// (ice, water and solids by Choi-Okos), WITHOUT the latent heat: energy balances across
     /// freezing must use differences of [`Material::enthalpy_j_per_kg`].
-    pub fn specific_heat_j_per_kg_k(
-        &self,
-        temp_c: f64,
-        moisture_wb: Option<f64>,
-    ) -> Result<f64, InputError> {
+    pub fn specific_heat_j_per_kg_k(&self, temp_c: f64, moisture_wb: Option<f64>) -> Result<f64, InputError> {
         let temp_c = checked_temp(temp_c)?;
         let moisture_wb = checked_moisture(moisture_wb)?;
         Ok(match &self.thermal {
@@ -529,16 +419,9 @@ impl Material {
                 };
                 unfrozen - ice * water_cp + ice * thermal::ice_cp_unchecked(temp_c.min(0.0))
             }
-            ThermalModel::Constant {
-                specific_heat_j_per_kg_k,
-                ..
-            } => *specific_heat_j_per_kg_k,
+            ThermalModel::Constant { specific_heat_j_per_kg_k, .. } => *specific_heat_j_per_kg_k,
             ThermalModel::Table { points, .. } => table_specific_heat(points, temp_c),
-            ThermalModel::DryPlusWater {
-                dry_specific_heat_j_per_kg_k,
-                moisture_wb: nominal,
-                ..
-            } => {
+            ThermalModel::DryPlusWater { dry_specific_heat_j_per_kg_k, moisture_wb: nominal, .. } => {
                 let x = moisture_wb.unwrap_or(*nominal);
                 x * water_specific_heat(temp_c) + (1.0 - x) * dry_specific_heat_j_per_kg_k
             }
@@ -550,11 +433,7 @@ impl Material {
     /// rising in T, with the latent heat of the frozen fraction for foods with a freezing point.
     /// The reference differs between models (see [`Material::enthalpy_reference`]): only
     /// differences within one material are meaningful.
-    pub fn enthalpy_j_per_kg(
-        &self,
-        temp_c: f64,
-        moisture_wb: Option<f64>,
-    ) -> Result<f64, InputError> {
+    pub fn enthalpy_j_per_kg(&self, temp_c: f64, moisture_wb: Option<f64>) -> Result<f64, InputError> {
         let temp_c = checked_temp(temp_c)?;
         let moisture_wb = checked_moisture(moisture_wb)?;
         Ok(match &self.thermal {
@@ -573,19 +452,11 @@ impl Material {
                     None => food.sensible_heat_j_per_kg(0.0, temp_c),
                 }
             }
-            ThermalModel::Constant {
-                specific_heat_j_per_kg_k,
-                ..
-            } => specific_heat_j_per_kg_k * temp_c,
+            ThermalModel::Constant { specific_heat_j_per_kg_k, .. } => specific_heat_j_per_kg_k * temp_c,
             ThermalModel::Table { points, .. } => table_enthalpy(points, temp_c),
-            ThermalModel::DryPlusWater {
-                dry_specific_heat_j_per_kg_k,
-                moisture_wb: nominal,
-                ..
-            } => {
+            ThermalModel::DryPlusWater { dry_specific_heat_j_per_kg_k, moisture_wb: nominal, .. } => {
                 let x = moisture_wb.unwrap_or(*nominal);
-                x * thermal::liquid_enthalpy_from_zero(temp_c)
-                    + (1.0 - x) * dry_specific_heat_j_per_kg_k * temp_c
+                x * thermal::liquid_enthalpy_from_zero(temp_c) + (1.0 - x) * dry_specific_heat_j_per_kg_k * temp_c
             }
         })
     }
@@ -596,10 +467,9 @@ impl Material {
             ThermalModel::Water { .. } | ThermalModel::Ice { .. } => {
                 "liquid water at 0 degC (ice at 0 degC is -333.42 kJ/kg)"
             }
-            ThermalModel::Composition {
-                initial_freezing_point_c: Some(_),
-                ..
-            } => "the frozen food at -40 degC (ASHRAE)",
+            ThermalModel::Composition { initial_freezing_point_c: Some(_), .. } => {
+                "the frozen food at -40 degC (ASHRAE)"
+            }
             _ => "the material at 0 degC (water in it liquid)",
         }
     }
@@ -609,8 +479,7 @@ impl Material {
 /// difference of h'; below 0.01 degC the supercooled straight line of thermal.rs).
 fn water_specific_heat(temp_c: f64) -> f64 {
     let step = 0.01;
-    (thermal::liquid_enthalpy_from_zero(temp_c + step)
-        - thermal::liquid_enthalpy_from_zero(temp_c - step))
+    (thermal::liquid_enthalpy_from_zero(temp_c + step) - thermal::liquid_enthalpy_from_zero(temp_c - step))
         / (2.0 * step)
 }
 
@@ -628,8 +497,7 @@ fn table_specific_heat(points: &[library::SpecificHeatPoint], temp_c: f64) -> f6
         let (a, b) = (pair[0], pair[1]);
         if temp_c <= b.temp_c {
             let fraction = (temp_c - a.temp_c) / (b.temp_c - a.temp_c);
-            return a.specific_heat_j_per_kg_k
-                + fraction * (b.specific_heat_j_per_kg_k - a.specific_heat_j_per_kg_k);
+            return a.specific_heat_j_per_kg_k + fraction * (b.specific_heat_j_per_kg_k - a.specific_heat_j_per_kg_k);
         }
     }
     last.specific_heat_j_per_kg_k
@@ -639,24 +507,14 @@ fn table_specific_heat(points: &[library::SpecificHeatPoint], temp_c: f64) -> f6
 fn table_enthalpy(points: &[library::SpecificHeatPoint], temp_c: f64) -> f64 {
     // Integrate with the trapezoid rule over the breakpoints between 0 and temp_c (exact for a
     // piecewise-linear function).
-    let (low, high, sign) = if temp_c >= 0.0 {
-        (0.0, temp_c, 1.0)
-    } else {
-        (temp_c, 0.0, -1.0)
-    };
+    let (low, high, sign) = if temp_c >= 0.0 { (0.0, temp_c, 1.0) } else { (temp_c, 0.0, -1.0) };
     let mut knots: Vec<f64> = vec![low, high];
-    knots.extend(
-        points
-            .iter()
-            .map(|p| p.temp_c)
-            .filter(|&t| t > low && t < high),
-    );
+    knots.extend(points.iter().map(|p| p.temp_c).filter(|&t| t > low && t < high));
     knots.sort_by(f64::total_cmp);
     let integral: f64 = knots
         .windows(2)
         .map(|pair| {
-            0.5 * (pair[1] - pair[0])
-                * (table_specific_heat(points, pair[0]) + table_specific_heat(points, pair[1]))
+            0.5 * (pair[1] - pair[0]) * (table_specific_heat(points, pair[0]) + table_specific_heat(points, pair[1]))
         })
         .sum();
     sign * integral

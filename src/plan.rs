@@ -8,6 +8,7 @@
 //! cost, warnings and the standing cautions.
 
 pub mod band_comparison;
+pub mod depth_profile;
 pub mod product;
 pub mod warnings;
 
@@ -69,6 +70,33 @@ pub struct Zone {
     pub eps_imag: f64,
     /// Power absorbed in the zone, kW.
     pub absorbed_kw: f64,
+}
+
+/// The power density through the bed at the product state where it is least even.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct DepthProfile {
+    /// `inlet` or `outlet`: which state the profile is for.
+    pub state: &'static str,
+    /// The layered solution: reflectance, absorptance per layer, samples and uniformity.
+    #[serde(flatten)]
+    pub solution: crate::physics::layers::StackSolution,
+}
+
+/// Evenness of heating through the bed at one state.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct UniformityAtState {
+    /// `inlet` or `outlet`.
+    pub state: &'static str,
+    /// Lowest over highest power density in the product.
+    pub min_to_max_ratio: Option<f64>,
+    /// Core (far face, or centre when fed from both sides) over surface power density.
+    pub core_to_surface_ratio: Option<f64>,
+    /// Depth where the power density first falls to half the surface value, m.
+    pub half_power_depth_m: Option<f64>,
+    /// Whether the core gets less than the threshold share.
+    pub core_lags: bool,
+    /// Fraction of the incident power the product absorbs in one pass (no cavity).
+    pub single_pass_absorptance: f64,
 }
 
 /// Every assumption the plan used, echoed so the quote can be defended.
@@ -165,6 +193,10 @@ pub struct Plan {
     pub dielectric_outlet: DielectricState,
     /// Profiles along the tunnel.
     pub zones: Vec<Zone>,
+    /// Power density through the bed depth (the less even of inlet and outlet).
+    pub depth_profile: Option<DepthProfile>,
+    /// Evenness through the bed at the inlet and the outlet.
+    pub uniformity: Vec<UniformityAtState>,
     /// Where the plan is weak.
     pub warnings: Vec<Warning>,
     /// Standing safety cautions.
@@ -206,7 +238,8 @@ fn plan_with(scenario: &Scenario, product: &Product) -> Result<Plan, Vec<InputEr
         Some(temp) => temp,
         None => thermal::boiling_point_c(scenario.pressure_kpa * 1000.0).map_err(|e| vec![e.within("pressure")])?,
     };
-    let latent_heat = thermal::latent_heat_vaporization_j_per_kg(evaporation_temp_c).map_err(|e| vec![e.within("evaporation")])?;
+    let latent_heat =
+        thermal::latent_heat_vaporization_j_per_kg(evaporation_temp_c).map_err(|e| vec![e.within("evaporation")])?;
     let frequency_hz = scenario.frequency_mhz * 1e6;
 
     let energy = balance(
@@ -232,7 +265,8 @@ fn plan_with(scenario: &Scenario, product: &Product) -> Result<Plan, Vec<InputEr
     }
 
     // Size the generators on their output, then take their efficiencies for the rest of the chain.
-    let generator_output_needed_kw = energy.absorbed_kw / (scenario.efficiency.applicator * scenario.efficiency.transmission);
+    let generator_output_needed_kw =
+        energy.absorbed_kw / (scenario.efficiency.applicator * scenario.efficiency.transmission);
     let catalogue = catalogue_for(scenario);
     let selection = select(
         &catalogue,
@@ -257,7 +291,10 @@ fn plan_with(scenario: &Scenario, product: &Product) -> Result<Plan, Vec<InputEr
         residence: scenario.tunnel.residence,
     };
     let heating_rate_basis_rise_k = if drying {
-        let cp = product.material.specific_heat_j_per_kg_k(scenario.inlet.temp_c.max(0.0), Some(moisture_in)).map_err(|e| vec![e.within("product")])?;
+        let cp = product
+            .material
+            .specific_heat_j_per_kg_k(scenario.inlet.temp_c.max(0.0), Some(moisture_in))
+            .map_err(|e| vec![e.within("product")])?;
         energy.absorbed_j_per_kg / cp
     } else {
         scenario.outlet.temp_c - scenario.inlet.temp_c
@@ -265,15 +302,26 @@ fn plan_with(scenario: &Scenario, product: &Product) -> Result<Plan, Vec<InputEr
     let tunnel = lay_out(&tunnel_input, scenario.throughput_kg_per_h, energy.absorbed_kw, heating_rate_basis_rise_k);
 
     let water_cooled = selection.class.cooling == "water";
-    let cooling_water_heat_kw = flow.losses.uncoupled_to_water_loads_kw + if water_cooled { flow.losses.generator_to_tube_cooling_kw } else { 0.0 };
-    let utilities = utilities(&scenario.site, flow.mains_kw, flow.absorbed_kw, cooling_water_heat_kw, scenario.throughput_kg_per_h, energy.water_removed_kg_per_h);
+    let cooling_water_heat_kw = flow.losses.uncoupled_to_water_loads_kw
+        + if water_cooled { flow.losses.generator_to_tube_cooling_kw } else { 0.0 };
+    let utilities = utilities(
+        &scenario.site,
+        flow.mains_kw,
+        flow.absorbed_kw,
+        cooling_water_heat_kw,
+        scenario.throughput_kg_per_h,
+        energy.water_removed_kg_per_h,
+    );
 
     let dielectric_at = |temp_c: f64, moisture_wb: f64| -> Result<DielectricState, Vec<InputError>> {
         let lookup = product.permittivity(frequency_hz, temp_c, moisture_wb).map_err(|e| vec![e.within("product")])?;
         Ok(DielectricState {
             temp_c,
             moisture_wb,
-            frozen_fraction: product.material.frozen_fraction_at(temp_c, Some(moisture_wb)).map_err(|e| vec![e.within("product")])?,
+            frozen_fraction: product
+                .material
+                .frozen_fraction_at(temp_c, Some(moisture_wb))
+                .map_err(|e| vec![e.within("product")])?,
             eps_real: lookup.eps.eps_real,
             eps_imag: lookup.eps.eps_imag,
             penetration_depth_m: penetration_depth_m(frequency_hz, lookup.eps),
@@ -284,10 +332,42 @@ fn plan_with(scenario: &Scenario, product: &Product) -> Result<Plan, Vec<InputEr
     let dielectric_inlet = dielectric_at(scenario.inlet.temp_c, moisture_in)?;
     let dielectric_outlet = dielectric_at(scenario.outlet.temp_c, moisture_out)?;
 
-    let smallest_dp = [dielectric_inlet.penetration_depth_m, dielectric_outlet.penetration_depth_m].into_iter().flatten().reduce(f64::min);
+    let smallest_dp = [dielectric_inlet.penetration_depth_m, dielectric_outlet.penetration_depth_m]
+        .into_iter()
+        .flatten()
+        .reduce(f64::min);
     let bed_over_penetration_depth = smallest_dp.map(|dp| scenario.tunnel.bed_depth_m / dp);
     let mean_eps_imag = 0.5 * (dielectric_inlet.eps_imag + dielectric_outlet.eps_imag);
-    let mean_field_v_per_m = field_for_power_density_v_per_m(frequency_hz, mean_eps_imag, tunnel.mean_power_density_kw_per_m3 * 1000.0);
+    let mean_field_v_per_m =
+        field_for_power_density_v_per_m(frequency_hz, mean_eps_imag, tunnel.mean_power_density_kw_per_m3 * 1000.0);
+
+    let mut profiles = Vec::new();
+    for (state, dielectric) in [("inlet", &dielectric_inlet), ("outlet", &dielectric_outlet)] {
+        let eps = crate::physics::permittivity::ComplexPermittivity::new(dielectric.eps_real, dielectric.eps_imag);
+        profiles.push((state, depth_profile::depth_profile(scenario, frequency_hz, eps).map_err(|e| vec![e])?));
+    }
+    let uniformity: Vec<UniformityAtState> = profiles
+        .iter()
+        .map(|(state, solution)| {
+            let u = solution.uniformity.as_ref();
+            UniformityAtState {
+                state,
+                min_to_max_ratio: u.and_then(|u| u.min_to_max_ratio),
+                core_to_surface_ratio: u.and_then(|u| u.core_to_surface_ratio),
+                half_power_depth_m: u.and_then(|u| u.fraction_depths.iter().find(|d| (d.fraction - 0.5).abs() < 1e-9).and_then(|d| d.depth_m)),
+                core_lags: u.is_some_and(|u| u.core_lags),
+                single_pass_absorptance: solution.product_absorptance,
+            }
+        })
+        .collect();
+    // Show the state whose core gets the smallest share: that is where the plan is weakest.
+    let depth_profile = profiles
+        .into_iter()
+        .min_by(|a, b| {
+            let share = |s: &crate::physics::layers::StackSolution| s.uniformity.as_ref().and_then(|u| u.core_to_surface_ratio).unwrap_or(1.0);
+            share(&a.1).partial_cmp(&share(&b.1)).unwrap_or(std::cmp::Ordering::Equal)
+        })
+        .map(|(state, solution)| DepthProfile { state, solution });
 
     let zones = vec![Zone {
         index: 1,
@@ -329,6 +409,8 @@ fn plan_with(scenario: &Scenario, product: &Product) -> Result<Plan, Vec<InputEr
         dielectric_inlet,
         dielectric_outlet,
         zones,
+        depth_profile,
+        uniformity,
         warnings: Vec::new(),
         cautions: cautions(scenario.frequency_mhz, selection.class.anode_kv, is_combustible(&product.material)),
         assumptions: Assumptions {
@@ -364,7 +446,10 @@ fn plan_with(scenario: &Scenario, product: &Product) -> Result<Plan, Vec<InputEr
 /// Whether a dried or heated product of this category burns (for the combustible-product caution).
 fn is_combustible(material: &crate::materials::Material) -> bool {
     use crate::materials::Category;
-    matches!(material.category, Category::Wood | Category::Paper | Category::Textile | Category::Bakery | Category::Rubber | Category::Polymer)
+    matches!(
+        material.category,
+        Category::Wood | Category::Paper | Category::Textile | Category::Bakery | Category::Rubber | Category::Polymer
+    )
 }
 
 /// The warnings that follow from a computed plan.
@@ -394,7 +479,19 @@ fn plan_warnings(scenario: &Scenario, product: &Product, plan: &Plan) -> Vec<War
             ));
         }
     }
-    if let Ok(Some(risk)) = crate::materials::warnings::runaway_risk(&product.material, scenario.frequency_mhz * 1e6, &product.state(scenario.inlet.temp_c, plan.assumptions.inlet_moisture_wb), &product.state(scenario.outlet.temp_c, plan.assumptions.outlet_moisture_wb)) {
+    if let Some(lagging) = plan.uniformity.iter().find(|u| u.core_lags) {
+        let share = lagging.core_to_surface_ratio.map(|r| format!("{:.0} %", r * 100.0)).unwrap_or_else(|| "almost none".into());
+        list.push(Warning::new(
+            "core_lags",
+            format!("At the {} the product's core receives {share} of the surface power density (layered solution through the bed): the core will lag behind the surface. Make the bed thinner, feed from both sides, add equalising time, or use a lower frequency.", lagging.state),
+        ));
+    }
+    if let Ok(Some(risk)) = crate::materials::warnings::runaway_risk(
+        &product.material,
+        scenario.frequency_mhz * 1e6,
+        &product.state(scenario.inlet.temp_c, plan.assumptions.inlet_moisture_wb),
+        &product.state(scenario.outlet.temp_c, plan.assumptions.outlet_moisture_wb),
+    ) {
         list.push(Warning::new("runaway_risk", risk.message));
     }
     let selection = &plan.generators;
@@ -428,7 +525,10 @@ fn plan_warnings(scenario: &Scenario, product: &Product, plan: &Plan) -> Vec<War
     if plan.tunnel_length_m > LONG_TUNNEL_M {
         list.push(Warning::new(
             "long_tunnel",
-            format!("The heated length is {:.0} m: consider a wider belt, a deeper bed or several parallel lines.", plan.tunnel_length_m),
+            format!(
+                "The heated length is {:.0} m: consider a wider belt, a deeper bed or several parallel lines.",
+                plan.tunnel_length_m
+            ),
         ));
     }
     if let Some(freezing_point) = product.material.initial_freezing_point_c() {
@@ -444,7 +544,10 @@ fn plan_warnings(scenario: &Scenario, product: &Product, plan: &Plan) -> Vec<War
             _ => {}
         }
     }
-    if matches!(scenario.generator.redundancy, crate::sizing::generators::Redundancy::N) && plan.generators.running_count == 1 && plan.generators.class.kind == GeneratorKind::Magnetron {
+    if matches!(scenario.generator.redundancy, crate::sizing::generators::Redundancy::N)
+        && plan.generators.running_count == 1
+        && plan.generators.class.kind == GeneratorKind::Magnetron
+    {
         list.push(Warning::new(
             "single_generator",
             "The line hangs on one magnetron: a tube failure stops production. Consider N+1 for lines that must not stop.",

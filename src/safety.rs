@@ -41,11 +41,7 @@ pub fn icnirp_whole_body_power_density_w_per_m2(freq_mhz: f64, exposed: Exposed)
         Exposed::Occupational => (40.0, 50.0),
         Exposed::GeneralPublic => (200.0, 10.0),
     };
-    Some(if freq_mhz <= 2000.0 {
-        freq_mhz / divisor
-    } else {
-        ceiling
-    })
+    Some(if freq_mhz <= 2000.0 { freq_mhz / divisor } else { ceiling })
 }
 
 /// ICNIRP 2020 whole-body reference level as RMS electric field, V/m, for 0.1 to 400 MHz
@@ -59,30 +55,21 @@ pub fn icnirp_whole_body_field_v_per_m(freq_mhz: f64, exposed: Exposed) -> Optio
         Exposed::Occupational => (660.0, 61.0),
         Exposed::GeneralPublic => (300.0, 27.7),
     };
-    Some(if freq_mhz <= 30.0 {
-        coefficient / freq_mhz.powf(0.7)
-    } else {
-        flat
-    })
+    Some(if freq_mhz <= 30.0 { coefficient / freq_mhz.powf(0.7) } else { flat })
 }
 
 /// The cautions for a line at `freq_mhz` whose generators run at about `supply_kv`.
 pub fn cautions(freq_mhz: f64, supply_kv: f64, combustible_product: bool) -> Vec<Caution> {
     let microwave = freq_mhz >= 300.0;
     let exposure = if microwave {
-        let occupational =
-            icnirp_whole_body_power_density_w_per_m2(freq_mhz, Exposed::Occupational)
-                .unwrap_or(50.0);
-        let public = icnirp_whole_body_power_density_w_per_m2(freq_mhz, Exposed::GeneralPublic)
-            .unwrap_or(10.0);
+        let occupational = icnirp_whole_body_power_density_w_per_m2(freq_mhz, Exposed::Occupational).unwrap_or(50.0);
+        let public = icnirp_whole_body_power_density_w_per_m2(freq_mhz, Exposed::GeneralPublic).unwrap_or(10.0);
         format!(
             "Leakage from doors, tunnel openings, waveguide flanges and viewing windows must be measured with a calibrated survey meter at commissioning, after any maintenance that opens the microwave path, and at regular intervals. Industrial equipment is tested to IEC 60519-6 (a limit of 50 W/m² at 50 mm from accessible surfaces, from memory: check the edition in force); ovens for sale in the US must not exceed 1 mW/cm² (10 W/m²) at 5 cm before purchase and 5 mW/cm² after (21 CFR 1030.10). Whole-body exposure reference levels at {freq_mhz} MHz (ICNIRP 2020, from memory): about {occupational:.0} W/m² for workers and {public:.0} W/m² for the public. Local regulations prevail."
         )
     } else {
-        let occupational =
-            icnirp_whole_body_field_v_per_m(freq_mhz, Exposed::Occupational).unwrap_or(61.0);
-        let public =
-            icnirp_whole_body_field_v_per_m(freq_mhz, Exposed::GeneralPublic).unwrap_or(27.7);
+        let occupational = icnirp_whole_body_field_v_per_m(freq_mhz, Exposed::Occupational).unwrap_or(61.0);
+        let public = icnirp_whole_body_field_v_per_m(freq_mhz, Exposed::GeneralPublic).unwrap_or(27.7);
         format!(
             "RF applicators radiate strongly from open electrode systems: stray fields near the applicator, feeders and product openings must be surveyed at commissioning and after maintenance, and the line must meet IEC 60519-6 and the radio-interference limits for ISM equipment. Whole-body reference levels at {freq_mhz} MHz (ICNIRP 2020, from memory): about {occupational:.0} V/m for workers and {public:.0} V/m for the public. Local regulations prevail."
         )
@@ -140,26 +127,14 @@ mod tests {
     #[test]
     fn reference_levels() {
         // ICNIRP 2020 Table 5 (from memory, shared/sources.md 9.2): occupational f/40 at 915 MHz.
-        assert_relative_eq!(
-            icnirp_whole_body_power_density_w_per_m2(915.0, Exposed::Occupational).unwrap(),
-            22.875
-        );
-        assert_relative_eq!(
-            icnirp_whole_body_power_density_w_per_m2(2450.0, Exposed::GeneralPublic).unwrap(),
-            10.0
-        );
-        assert_eq!(
-            icnirp_whole_body_power_density_w_per_m2(27.12, Exposed::Occupational),
-            None
-        );
+        assert_relative_eq!(icnirp_whole_body_power_density_w_per_m2(915.0, Exposed::Occupational).unwrap(), 22.875);
+        assert_relative_eq!(icnirp_whole_body_power_density_w_per_m2(2450.0, Exposed::GeneralPublic).unwrap(), 10.0);
+        assert_eq!(icnirp_whole_body_power_density_w_per_m2(27.12, Exposed::Occupational), None);
         assert_relative_eq!(
             icnirp_whole_body_field_v_per_m(27.12, Exposed::Occupational).unwrap(),
             660.0 / 27.12_f64.powf(0.7)
         );
-        assert_relative_eq!(
-            icnirp_whole_body_field_v_per_m(40.68, Exposed::GeneralPublic).unwrap(),
-            27.7
-        );
+        assert_relative_eq!(icnirp_whole_body_field_v_per_m(40.68, Exposed::GeneralPublic).unwrap(), 27.7);
     }
 
     #[test]
@@ -175,14 +150,9 @@ mod tests {
                 "ceramic_dust",
                 "local_codes",
             ] {
-                assert!(
-                    codes.contains(&required),
-                    "{required} missing at {freq} MHz"
-                );
+                assert!(codes.contains(&required), "{required} missing at {freq} MHz");
             }
         }
-        assert!(cautions(915.0, 17.0, true)
-            .iter()
-            .any(|c| c.code == "combustible_product"));
+        assert!(cautions(915.0, 17.0, true).iter().any(|c| c.code == "combustible_product"));
     }
 }

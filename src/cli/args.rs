@@ -62,10 +62,7 @@ impl Args {
             if let Some(name) = word.strip_prefix("--") {
                 if !known.contains(&name) {
                     let list: Vec<String> = known.iter().map(|k| format!("--{k}")).collect();
-                    return Err(CliError::Usage(format!(
-                        "unknown option --{name}; accepted: {}",
-                        list.join(" ")
-                    )));
+                    return Err(CliError::Usage(format!("unknown option --{name}; accepted: {}", list.join(" "))));
                 }
                 let Some(value) = words.next() else {
                     return Err(CliError::Usage(format!("--{name} needs a value")));
@@ -90,11 +87,7 @@ impl Args {
         };
         let field = name.replace('-', "_");
         let value: f64 = text.trim().replace(',', ".").parse().map_err(|_| {
-            CliError::Input(InputError::new(
-                &field,
-                format!("{text:?}"),
-                doubleprime::error::range_text(min, max),
-            ))
+            CliError::Input(InputError::new(&field, format!("{text:?}"), doubleprime::error::range_text(min, max)))
         })?;
         Ok(Some(require_in(&field, value, min, max)?))
     }
@@ -102,20 +95,14 @@ impl Args {
     /// A number flag that must be given.
     pub fn required_number(&self, name: &str, min: f64, max: f64) -> Result<f64, CliError> {
         self.number(name, min, max)?.ok_or_else(|| {
-            CliError::Usage(format!(
-                "--{name} is required ({})",
-                doubleprime::error::range_text(min, max)
-            ))
+            CliError::Usage(format!("--{name} is required ({})", doubleprime::error::range_text(min, max)))
         })
     }
 
     /// Refuse positional words beyond `count`.
     pub fn at_most_positional(&self, count: usize, what: &str) -> Result<(), CliError> {
         if self.positional.len() > count {
-            return Err(CliError::Usage(format!(
-                "unexpected argument `{}`; expected {what}",
-                self.positional[count]
-            )));
+            return Err(CliError::Usage(format!("unexpected argument `{}`; expected {what}", self.positional[count])));
         }
         Ok(())
     }

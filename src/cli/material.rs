@@ -4,8 +4,8 @@
 use super::args::{Args, CliError};
 use doubleprime::materials::warnings::{bed_depth_check, runaway_risk};
 use doubleprime::materials::{
-    library, permittivity_with_conductivity, MaterialState, CONDUCTIVITY_MAX_S_PER_M,
-    MOISTURE_MAX_WB, SALT_MAX_PCT, TEMP_MAX_C, TEMP_MIN_C,
+    library, permittivity_with_conductivity, MaterialState, CONDUCTIVITY_MAX_S_PER_M, MOISTURE_MAX_WB, SALT_MAX_PCT,
+    TEMP_MAX_C, TEMP_MIN_C,
 };
 use doubleprime::physics::bands::out_of_band_warning;
 use doubleprime::physics::waves::{checked_frequency_hz, wave_properties, FREQUENCY_MAX_HZ};
@@ -14,15 +14,7 @@ use serde_json::{json, Value};
 pub fn run(rest: &[String]) -> Result<String, CliError> {
     let args = Args::parse(
         rest,
-        &[
-            "freq-mhz",
-            "temp-c",
-            "moisture-wb",
-            "salt-pct",
-            "conductivity-s-per-m",
-            "to-temp-c",
-            "bed-depth-m",
-        ],
+        &["freq-mhz", "temp-c", "moisture-wb", "salt-pct", "conductivity-s-per-m", "to-temp-c", "bed-depth-m"],
     )?;
     args.at_most_positional(1, "one material name")?;
     let Some(name) = args.positional.first() else {
@@ -45,11 +37,7 @@ pub fn run(rest: &[String]) -> Result<String, CliError> {
     let to_temp_c = args.number("to-temp-c", TEMP_MIN_C, TEMP_MAX_C)?;
     let bed_depth_m = args.number("bed-depth-m", 1e-4, 10.0)?;
 
-    let state = MaterialState {
-        temp_c,
-        moisture_wb,
-        salt_pct,
-    };
+    let state = MaterialState { temp_c, moisture_wb, salt_pct };
     let lookup = permittivity_with_conductivity(material, frequency_hz, &state, conductivity)?;
     let waves = wave_properties(frequency_hz, lookup.eps);
     let mut warnings: Vec<Value> = out_of_band_warning(freq_mhz)
@@ -73,10 +61,7 @@ pub fn run(rest: &[String]) -> Result<String, CliError> {
     let bed = match bed_depth_m {
         Some(depth) => {
             let check = bed_depth_check(waves.penetration_depth_m, depth)?;
-            if !matches!(
-                check.verdict,
-                doubleprime::materials::warnings::BedVerdict::Even
-            ) {
+            if !matches!(check.verdict, doubleprime::materials::warnings::BedVerdict::Even) {
                 warnings.push(json!({ "code": "bed_depth", "message": check.message }));
             }
             json!(check)

@@ -12,10 +12,7 @@ pub fn run(rest: &[String]) -> Result<String, CliError> {
         if !library().iter().any(|m| m.category.as_str() == wanted) {
             let mut known: Vec<&str> = library().iter().map(|m| m.category.as_str()).collect();
             known.dedup();
-            return Err(CliError::Usage(format!(
-                "unknown category `{wanted}`; one of: {}",
-                known.join(", ")
-            )));
+            return Err(CliError::Usage(format!("unknown category `{wanted}`; one of: {}", known.join(", "))));
         }
     }
     let entries: Vec<Value> = library()

@@ -47,7 +47,11 @@ fn text_report(plan: &Plan) -> String {
     }
     let _ = writeln!(out, "  cooling water        {:.1} L/min", plan.cooling_water_l_per_min);
     let u = &plan.utilities;
-    let _ = writeln!(out, "  energy cost          {:.2} {} per hour, {:.2} per tonne", u.energy_cost_per_hour, u.currency, u.energy_cost_per_tonne);
+    let _ = writeln!(
+        out,
+        "  energy cost          {:.2} {} per hour, {:.2} per tonne",
+        u.energy_cost_per_hour, u.currency, u.energy_cost_per_tonne
+    );
     if plan.warnings.is_empty() {
         let _ = writeln!(out, "Warnings: none");
     } else {

@@ -11,7 +11,10 @@ const FILE_BYTES_MAX: u64 = 4 * 1024 * 1024;
 fn read_text(path: &str) -> Result<String, CliError> {
     let metadata = std::fs::metadata(path).map_err(|error| CliError::File(format!("{path}: cannot read ({error})")))?;
     if metadata.len() > FILE_BYTES_MAX {
-        return Err(CliError::File(format!("{path}: {} bytes is too large (at most {FILE_BYTES_MAX})", metadata.len())));
+        return Err(CliError::File(format!(
+            "{path}: {} bytes is too large (at most {FILE_BYTES_MAX})",
+            metadata.len()
+        )));
     }
     std::fs::read_to_string(path).map_err(|error| CliError::File(format!("{path}: cannot read ({error})")))
 }

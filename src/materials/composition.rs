@@ -19,6 +19,7 @@ use serde::{Deserialize, Serialize};
 
 /// Mass fractions of a food (they sum to 1 within 0.02; the rest is taken as carbohydrate-like).
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct Composition {
     /// Water, kg/kg.
     pub water: f64,
@@ -61,20 +62,12 @@ impl Composition {
             ("ash", self.ash),
         ] {
             if !(value.is_finite() && (0.0..=1.0).contains(&value)) {
-                problems.push(InputError::new(
-                    format!("{prefix}.{name}"),
-                    value,
-                    "0 to 1 (mass fraction)",
-                ));
+                problems.push(InputError::new(format!("{prefix}.{name}"), value, "0 to 1 (mass fraction)"));
             }
         }
         let sum = self.sum();
         if !(sum.is_finite() && (sum - 1.0).abs() <= COMPOSITION_SUM_TOLERANCE) {
-            problems.push(InputError::new(
-                format!("{prefix} (sum of fractions)"),
-                sum,
-                "1 within 0.02",
-            ));
+            problems.push(InputError::new(format!("{prefix} (sum of fractions)"), sum, "1 within 0.02"));
         }
         problems
     }
@@ -82,11 +75,7 @@ impl Composition {
     /// The same food at another water content, dry solids kept in their proportions.
     pub fn at_moisture(&self, moisture_wb: f64) -> Composition {
         let solids = self.solids();
-        let scale = if solids > 0.0 {
-            (1.0 - moisture_wb) / solids
-        } else {
-            0.0
-        };
+        let scale = if solids > 0.0 { (1.0 - moisture_wb) / solids } else { 0.0 };
         Composition {
             water: moisture_wb,
             protein: self.protein * scale,
@@ -177,24 +166,14 @@ mod tests {
     use super::*;
     use approx::assert_relative_eq;
 
-    const LEAN_BEEF: Composition = Composition {
-        water: 0.74,
-        protein: 0.22,
-        fat: 0.02,
-        carbohydrate: 0.01,
-        fiber: 0.0,
-        ash: 0.01,
-    };
+    const LEAN_BEEF: Composition =
+        Composition { water: 0.74, protein: 0.22, fat: 0.02, carbohydrate: 0.01, fiber: 0.0, ash: 0.01 };
 
     #[test]
     fn lean_beef_specific_heat_at_20_c() {
         // shared/sources.md 7 [CALC]: lean beef (74/22/2/1/1) at 20 degC, Choi-Okos with the 4.1762
         // water constant: 3.6051 kJ/(kg K).
-        assert_relative_eq!(
-            LEAN_BEEF.specific_heat_j_per_kg_k(20.0),
-            3605.1,
-            max_relative = 2e-4
-        );
+        assert_relative_eq!(LEAN_BEEF.specific_heat_j_per_kg_k(20.0), 3605.1, max_relative = 2e-4);
     }
 
     #[test]
@@ -218,9 +197,8 @@ mod tests {
         let exact = LEAN_BEEF.sensible_heat_j_per_kg(5.0, 65.0);
         let steps = 6000;
         let width = 60.0 / steps as f64;
-        let midpoint: f64 = (0..steps)
-            .map(|i| LEAN_BEEF.specific_heat_j_per_kg_k(5.0 + (i as f64 + 0.5) * width) * width)
-            .sum();
+        let midpoint: f64 =
+            (0..steps).map(|i| LEAN_BEEF.specific_heat_j_per_kg_k(5.0 + (i as f64 + 0.5) * width) * width).sum();
         assert_relative_eq!(exact, midpoint, max_relative = 1e-8);
     }
 
@@ -241,11 +219,7 @@ mod tests {
 
     #[test]
     fn bad_fractions_are_all_named() {
-        let bad = Composition {
-            water: 1.2,
-            protein: -0.1,
-            ..LEAN_BEEF
-        };
+        let bad = Composition { water: 1.2, protein: -0.1, ..LEAN_BEEF };
         let problems = bad.problems("thermal.composition");
         assert!(problems.iter().any(|p| p.field == "thermal.composition.water"));
         assert!(problems.iter().any(|p| p.field == "thermal.composition.protein"));

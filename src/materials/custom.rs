@@ -2,9 +2,7 @@
 //! the checks every material, built-in or user-defined, must pass. Every problem is named at once.
 
 use crate::error::{range_text, InputError};
-use crate::materials::library::{
-    Category, Confidence, DielectricModel, Material, Source, TablePoint, ThermalModel,
-};
+use crate::materials::library::{Category, Confidence, DielectricModel, Material, Source, TablePoint, ThermalModel};
 use crate::materials::{MOISTURE_MAX_WB, TEMP_MAX_C, TEMP_MIN_C};
 use crate::physics::permittivity::{EPS_IMAG_MAX, EPS_REAL_MAX};
 use crate::physics::waves::FREQUENCY_MAX_HZ;
@@ -84,20 +82,11 @@ pub fn custom_material(spec: &CustomMaterialSpec) -> Result<Material, Vec<InputE
     let mut problems = Vec::new();
     let name = spec.name.trim();
     if name.is_empty() || name.chars().count() > NAME_MAX_CHARS {
-        problems.push(InputError::new(
-            "name",
-            format!("{:?}", spec.name),
-            "1 to 60 characters",
-        ));
+        problems.push(InputError::new("name", format!("{:?}", spec.name), "1 to 60 characters"));
     }
     let source_id = "user".to_string();
     let dielectric = match &spec.dielectric {
-        CustomDielectric::Constant {
-            eps_real,
-            eps_imag,
-            freq_range_mhz,
-            temp_range_c,
-        } => DielectricModel::Constant {
+        CustomDielectric::Constant { eps_real, eps_imag, freq_range_mhz, temp_range_c } => DielectricModel::Constant {
             eps_real: *eps_real,
             eps_imag: *eps_imag,
             freq_range_mhz: freq_range_mhz.unwrap_or([0.0, FREQUENCY_MAX_HZ / 1e6]),
@@ -154,11 +143,7 @@ pub fn custom_material(spec: &CustomMaterialSpec) -> Result<Material, Vec<InputE
     };
     material.source = material.source_summary();
     // The user's name may contain anything; only the built-in identifiers are restricted.
-    problems.extend(
-        material_problems(&material)
-            .into_iter()
-            .filter(|p| p.field != "name"),
-    );
+    problems.extend(material_problems(&material).into_iter().filter(|p| p.field != "name"));
     if problems.is_empty() {
         Ok(material)
     } else {
@@ -176,39 +161,19 @@ fn check_range(problems: &mut Vec<InputError>, field: &str, range: [f64; 2], min
     check(problems, &format!("{field}[0]"), range[0], min, max);
     check(problems, &format!("{field}[1]"), range[1], min, max);
     if range[0] > range[1] {
-        problems.push(InputError::new(
-            field,
-            format!("[{}, {}]", range[0], range[1]),
-            "[min, max] with min <= max",
-        ));
+        problems.push(InputError::new(field, format!("[{}, {}]", range[0], range[1]), "[min, max] with min <= max"));
     }
 }
 
 fn check_source(problems: &mut Vec<InputError>, material: &Material, field: &str, id: &str) {
     if material.source_by_id(id).is_none() {
-        problems.push(InputError::new(
-            field,
-            format!("{id:?}"),
-            "the id of an entry in `sources`",
-        ));
+        problems.push(InputError::new(field, format!("{id:?}"), "the id of an entry in `sources`"));
     }
 }
 
 fn check_eps(problems: &mut Vec<InputError>, prefix: &str, eps_real: f64, eps_imag: f64) {
-    check(
-        problems,
-        &format!("{prefix}eps_real"),
-        eps_real,
-        1.0,
-        EPS_REAL_MAX,
-    );
-    check(
-        problems,
-        &format!("{prefix}eps_imag"),
-        eps_imag,
-        0.0,
-        EPS_IMAG_MAX,
-    );
+    check(problems, &format!("{prefix}eps_real"), eps_real, 1.0, EPS_REAL_MAX);
+    check(problems, &format!("{prefix}eps_imag"), eps_imag, 0.0, EPS_IMAG_MAX);
 }
 
 const FREQ_MAX_MHZ: f64 = FREQUENCY_MAX_HZ / 1e6;
@@ -217,10 +182,7 @@ const FREQ_MAX_MHZ: f64 = FREQUENCY_MAX_HZ / 1e6;
 pub fn material_problems(material: &Material) -> Vec<InputError> {
     let mut problems = Vec::new();
     let valid_name = !material.name.is_empty()
-        && material
-            .name
-            .chars()
-            .all(|c| c.is_ascii_lowercase() || c.is_ascii_digit() || c == '-');
+        && material.name.chars().all(|c| c.is_ascii_lowercase() || c.is_ascii_digit() || c == '-');
     if !valid_name {
         problems.push(InputError::new(
             "name",
@@ -231,13 +193,7 @@ pub fn material_problems(material: &Material) -> Vec<InputError> {
     if material.label.trim().is_empty() {
         problems.push(InputError::new("label", "\"\"", "a display label"));
     }
-    check(
-        &mut problems,
-        "density_kg_per_m3",
-        material.density_kg_per_m3,
-        DENSITY_MIN_KG_PER_M3,
-        DENSITY_MAX_KG_PER_M3,
-    );
+    check(&mut problems, "density_kg_per_m3", material.density_kg_per_m3, DENSITY_MIN_KG_PER_M3, DENSITY_MAX_KG_PER_M3);
     if material.sources.is_empty() {
         problems.push(InputError::new("sources", "[]", "at least one source"));
     }
@@ -261,32 +217,10 @@ pub fn material_problems(material: &Material) -> Vec<InputError> {
     dielectric_problems(material, &mut problems);
     for (index, point) in material.reference_points.iter().enumerate() {
         let prefix = format!("reference_points[{index}].");
-        check_source(
-            &mut problems,
-            material,
-            &format!("{prefix}source"),
-            &point.source,
-        );
-        check(
-            &mut problems,
-            &format!("{prefix}freq_mhz"),
-            point.freq_mhz,
-            1e-3,
-            FREQ_MAX_MHZ,
-        );
-        check(
-            &mut problems,
-            &format!("{prefix}temp_c"),
-            point.temp_c,
-            TEMP_MIN_C,
-            TEMP_MAX_C,
-        );
-        check_eps(
-            &mut problems,
-            &prefix,
-            point.eps_real,
-            point.eps_imag.unwrap_or(0.0),
-        );
+        check_source(&mut problems, material, &format!("{prefix}source"), &point.source);
+        check(&mut problems, &format!("{prefix}freq_mhz"), point.freq_mhz, 1e-3, FREQ_MAX_MHZ);
+        check(&mut problems, &format!("{prefix}temp_c"), point.temp_c, TEMP_MIN_C, TEMP_MAX_C);
+        check_eps(&mut problems, &prefix, point.eps_real, point.eps_imag.unwrap_or(0.0));
     }
     problems
 }
@@ -296,11 +230,7 @@ fn thermal_problems(material: &Material, problems: &mut Vec<InputError>) {
         ThermalModel::Water { source } | ThermalModel::Ice { source } => {
             check_source(problems, material, "thermal.source", source);
         }
-        ThermalModel::Composition {
-            composition,
-            initial_freezing_point_c,
-            source,
-        } => {
+        ThermalModel::Composition { composition, initial_freezing_point_c, source } => {
             check_source(problems, material, "thermal.source", source);
             problems.extend(composition.problems("thermal.composition"));
             if let Some(tf) = initial_freezing_point_c {
@@ -313,10 +243,7 @@ fn thermal_problems(material: &Material, problems: &mut Vec<InputError>) {
                 }
             }
         }
-        ThermalModel::Constant {
-            specific_heat_j_per_kg_k,
-            source,
-        } => {
+        ThermalModel::Constant { specific_heat_j_per_kg_k, source } => {
             check_source(problems, material, "thermal.source", source);
             check(
                 problems,
@@ -332,13 +259,7 @@ fn thermal_problems(material: &Material, problems: &mut Vec<InputError>) {
                 problems.push(InputError::new("thermal.points", "[]", "at least one point"));
             }
             for (index, point) in points.iter().enumerate() {
-                check(
-                    problems,
-                    &format!("thermal.points[{index}].temp_c"),
-                    point.temp_c,
-                    TEMP_MIN_C,
-                    TEMP_MAX_C,
-                );
+                check(problems, &format!("thermal.points[{index}].temp_c"), point.temp_c, TEMP_MIN_C, TEMP_MAX_C);
                 check(
                     problems,
                     &format!("thermal.points[{index}].specific_heat_j_per_kg_k"),
@@ -355,11 +276,7 @@ fn thermal_problems(material: &Material, problems: &mut Vec<InputError>) {
                 }
             }
         }
-        ThermalModel::DryPlusWater {
-            dry_specific_heat_j_per_kg_k,
-            moisture_wb,
-            source,
-        } => {
+        ThermalModel::DryPlusWater { dry_specific_heat_j_per_kg_k, moisture_wb, source } => {
             check_source(problems, material, "thermal.source", source);
             check(
                 problems,
@@ -368,13 +285,7 @@ fn thermal_problems(material: &Material, problems: &mut Vec<InputError>) {
                 SPECIFIC_HEAT_MIN_J_PER_KG_K,
                 SPECIFIC_HEAT_MAX_J_PER_KG_K,
             );
-            check(
-                problems,
-                "thermal.moisture_wb",
-                *moisture_wb,
-                0.0,
-                MOISTURE_MAX_WB,
-            );
+            check(problems, "thermal.moisture_wb", *moisture_wb, 0.0, MOISTURE_MAX_WB);
         }
     }
 }
@@ -384,66 +295,23 @@ fn dielectric_problems(material: &Material, problems: &mut Vec<InputError>) {
         DielectricModel::Water { source } | DielectricModel::Ice { source } => {
             check_source(problems, material, "dielectric.source", source);
         }
-        DielectricModel::Constant {
-            eps_real,
-            eps_imag,
-            freq_range_mhz,
-            temp_range_c,
-            source,
-        } => {
+        DielectricModel::Constant { eps_real, eps_imag, freq_range_mhz, temp_range_c, source } => {
             check_source(problems, material, "dielectric.source", source);
             check_eps(problems, "dielectric.", *eps_real, *eps_imag);
-            check_range(
-                problems,
-                "dielectric.freq_range_mhz",
-                *freq_range_mhz,
-                0.0,
-                FREQ_MAX_MHZ,
-            );
-            check_range(
-                problems,
-                "dielectric.temp_range_c",
-                *temp_range_c,
-                TEMP_MIN_C,
-                TEMP_MAX_C,
-            );
+            check_range(problems, "dielectric.freq_range_mhz", *freq_range_mhz, 0.0, FREQ_MAX_MHZ);
+            check_range(problems, "dielectric.temp_range_c", *temp_range_c, TEMP_MIN_C, TEMP_MAX_C);
         }
-        DielectricModel::Table {
-            points,
-            nominal_moisture_wb,
-        } => {
+        DielectricModel::Table { points, nominal_moisture_wb } => {
             if points.is_empty() {
-                problems.push(InputError::new(
-                    "dielectric.points",
-                    "[]",
-                    "at least one point",
-                ));
+                problems.push(InputError::new("dielectric.points", "[]", "at least one point"));
             }
             for (index, point) in points.iter().enumerate() {
                 let prefix = format!("dielectric.points[{index}].");
                 check_source(problems, material, &format!("{prefix}source"), &point.source);
-                check(
-                    problems,
-                    &format!("{prefix}freq_mhz"),
-                    point.freq_mhz,
-                    1e-3,
-                    FREQ_MAX_MHZ,
-                );
-                check(
-                    problems,
-                    &format!("{prefix}temp_c"),
-                    point.temp_c,
-                    TEMP_MIN_C,
-                    TEMP_MAX_C,
-                );
+                check(problems, &format!("{prefix}freq_mhz"), point.freq_mhz, 1e-3, FREQ_MAX_MHZ);
+                check(problems, &format!("{prefix}temp_c"), point.temp_c, TEMP_MIN_C, TEMP_MAX_C);
                 if let Some(moisture) = point.moisture_wb {
-                    check(
-                        problems,
-                        &format!("{prefix}moisture_wb"),
-                        moisture,
-                        0.0,
-                        MOISTURE_MAX_WB,
-                    );
+                    check(problems, &format!("{prefix}moisture_wb"), moisture, 0.0, MOISTURE_MAX_WB);
                 }
                 check_eps(problems, &prefix, point.eps_real, point.eps_imag);
             }
@@ -463,13 +331,7 @@ fn dielectric_problems(material: &Material, problems: &mut Vec<InputError>) {
                 ));
             }
             if let Some(nominal) = nominal_moisture_wb {
-                check(
-                    problems,
-                    "dielectric.nominal_moisture_wb",
-                    *nominal,
-                    0.0,
-                    MOISTURE_MAX_WB,
-                );
+                check(problems, "dielectric.nominal_moisture_wb", *nominal, 0.0, MOISTURE_MAX_WB);
             }
         }
         DielectricModel::Moist {
@@ -501,35 +363,11 @@ fn dielectric_problems(material: &Material, problems: &mut Vec<InputError>) {
                 DENSITY_MIN_KG_PER_M3,
                 *solid_density_kg_per_m3,
             );
-            check(
-                problems,
-                "dielectric.moisture_wb",
-                *moisture_wb,
-                0.0,
-                MOISTURE_MAX_WB,
-            );
-            check_range(
-                problems,
-                "dielectric.moisture_range_wb",
-                *moisture_range_wb,
-                0.0,
-                MOISTURE_MAX_WB,
-            );
+            check(problems, "dielectric.moisture_wb", *moisture_wb, 0.0, MOISTURE_MAX_WB);
+            check_range(problems, "dielectric.moisture_range_wb", *moisture_range_wb, 0.0, MOISTURE_MAX_WB);
             check(problems, "dielectric.salt_pct", *salt_pct, 0.0, 26.0);
-            check_range(
-                problems,
-                "dielectric.temp_range_c",
-                *temp_range_c,
-                TEMP_MIN_C,
-                TEMP_MAX_C,
-            );
-            check_range(
-                problems,
-                "dielectric.freq_range_mhz",
-                *freq_range_mhz,
-                0.0,
-                FREQ_MAX_MHZ,
-            );
+            check_range(problems, "dielectric.temp_range_c", *temp_range_c, TEMP_MIN_C, TEMP_MAX_C);
+            check_range(problems, "dielectric.freq_range_mhz", *freq_range_mhz, 0.0, FREQ_MAX_MHZ);
         }
         DielectricModel::Frozen {
             solids_eps_real,
@@ -542,41 +380,12 @@ fn dielectric_problems(material: &Material, problems: &mut Vec<InputError>) {
             ..
         } => {
             check_source(problems, material, "dielectric.source", source);
-            check_eps(
-                problems,
-                "dielectric.solids_",
-                *solids_eps_real,
-                *solids_eps_imag,
-            );
+            check_eps(problems, "dielectric.solids_", *solids_eps_real, *solids_eps_imag);
             check(problems, "dielectric.salt_pct", *salt_pct, 0.0, 26.0);
-            check_range(
-                problems,
-                "dielectric.temp_range_c",
-                *temp_range_c,
-                TEMP_MIN_C,
-                TEMP_MAX_C,
-            );
-            check_range(
-                problems,
-                "dielectric.freq_range_mhz",
-                *freq_range_mhz,
-                0.0,
-                FREQ_MAX_MHZ,
-            );
-            check_range(
-                problems,
-                "dielectric.moisture_range_wb",
-                *moisture_range_wb,
-                0.0,
-                MOISTURE_MAX_WB,
-            );
-            if !matches!(
-                material.thermal,
-                ThermalModel::Composition {
-                    initial_freezing_point_c: Some(_),
-                    ..
-                }
-            ) {
+            check_range(problems, "dielectric.temp_range_c", *temp_range_c, TEMP_MIN_C, TEMP_MAX_C);
+            check_range(problems, "dielectric.freq_range_mhz", *freq_range_mhz, 0.0, FREQ_MAX_MHZ);
+            check_range(problems, "dielectric.moisture_range_wb", *moisture_range_wb, 0.0, MOISTURE_MAX_WB);
+            if !matches!(material.thermal, ThermalModel::Composition { initial_freezing_point_c: Some(_), .. }) {
                 problems.push(InputError::new(
                     "thermal",
                     "not a composition with a freezing point",
@@ -615,30 +424,15 @@ mod tests {
         assert_eq!(lookup.eps.eps_imag, 12.0);
         assert!(lookup.in_range);
         assert!(lookup.source.contains("own measurement"));
-        assert_eq!(
-            material.specific_heat_j_per_kg_k(50.0, None).unwrap(),
-            3200.0
-        );
+        assert_eq!(material.specific_heat_j_per_kg_k(50.0, None).unwrap(), 3200.0);
     }
 
     #[test]
     fn every_problem_is_named_at_once() {
         let mut bad = spec(CustomDielectric::Table {
             points: vec![
-                CustomPoint {
-                    freq_mhz: -915.0,
-                    temp_c: 20.0,
-                    moisture_wb: None,
-                    eps_real: 0.5,
-                    eps_imag: f64::NAN,
-                },
-                CustomPoint {
-                    freq_mhz: 915.0,
-                    temp_c: 500.0,
-                    moisture_wb: Some(0.5),
-                    eps_real: 40.0,
-                    eps_imag: 10.0,
-                },
+                CustomPoint { freq_mhz: -915.0, temp_c: 20.0, moisture_wb: None, eps_real: 0.5, eps_imag: f64::NAN },
+                CustomPoint { freq_mhz: 915.0, temp_c: 500.0, moisture_wb: Some(0.5), eps_real: 40.0, eps_imag: 10.0 },
             ],
         });
         bad.density_kg_per_m3 = 0.0;
@@ -664,20 +458,8 @@ mod tests {
     fn table_material_interpolates() {
         let material = custom_material(&spec(CustomDielectric::Table {
             points: vec![
-                CustomPoint {
-                    freq_mhz: 2450.0,
-                    temp_c: 20.0,
-                    moisture_wb: None,
-                    eps_real: 40.0,
-                    eps_imag: 10.0,
-                },
-                CustomPoint {
-                    freq_mhz: 2450.0,
-                    temp_c: 60.0,
-                    moisture_wb: None,
-                    eps_real: 36.0,
-                    eps_imag: 14.0,
-                },
+                CustomPoint { freq_mhz: 2450.0, temp_c: 20.0, moisture_wb: None, eps_real: 40.0, eps_imag: 10.0 },
+                CustomPoint { freq_mhz: 2450.0, temp_c: 60.0, moisture_wb: None, eps_real: 36.0, eps_imag: 14.0 },
             ],
         }))
         .unwrap();

@@ -65,8 +65,7 @@ fn frozen_enthalpy_j_per_kg(composition: &Composition, tf_c: f64, temp_c: f64) -
     let tr = ENTHALPY_REFERENCE_C;
     let solids = composition.solids();
     let freezable = composition.water - bound_water(composition);
-    let bracket =
-        1.55 + 1.26 * solids - freezable * ASHRAE_LATENT_HEAT_KJ_PER_KG * tf_c / (tr * temp_c);
+    let bracket = 1.55 + 1.26 * solids - freezable * ASHRAE_LATENT_HEAT_KJ_PER_KG * tf_c / (tr * temp_c);
     1000.0 * (temp_c - tr) * bracket
 }
 
@@ -76,8 +75,7 @@ pub fn food_enthalpy_j_per_kg(composition: &Composition, tf_c: f64, temp_c: f64)
     if temp_c <= tf_c {
         frozen_enthalpy_j_per_kg(composition, tf_c, temp_c)
     } else {
-        frozen_enthalpy_j_per_kg(composition, tf_c, tf_c)
-            + composition.sensible_heat_j_per_kg(tf_c, temp_c)
+        frozen_enthalpy_j_per_kg(composition, tf_c, tf_c) + composition.sensible_heat_j_per_kg(tf_c, temp_c)
     }
 }
 
@@ -87,14 +85,8 @@ mod tests {
     use approx::assert_relative_eq;
 
     /// Lean beef of shared/sources.md 7: x_w 0.74, x_p 0.22, x_s 0.26, t_f = -1.7 degC.
-    const LEAN_BEEF: Composition = Composition {
-        water: 0.74,
-        protein: 0.22,
-        fat: 0.02,
-        carbohydrate: 0.01,
-        fiber: 0.0,
-        ash: 0.01,
-    };
+    const LEAN_BEEF: Composition =
+        Composition { water: 0.74, protein: 0.22, fat: 0.02, carbohydrate: 0.01, fiber: 0.0, ash: 0.01 };
     const TF: f64 = -1.7;
 
     #[test]
@@ -106,11 +98,7 @@ mod tests {
     #[test]
     fn ice_fraction_below_the_freezing_point() {
         // x_ice = (0.74 - 0.088)(1 - 1.7/10) = 0.54116 at -10 degC [CALC from the ASHRAE form].
-        assert_relative_eq!(
-            ice_mass_fraction(&LEAN_BEEF, TF, -10.0),
-            0.652 * 0.83,
-            max_relative = 1e-12
-        );
+        assert_relative_eq!(ice_mass_fraction(&LEAN_BEEF, TF, -10.0), 0.652 * 0.83, max_relative = 1e-12);
         // Far below, it tends to the freezable water x_w - x_b.
         assert!(ice_mass_fraction(&LEAN_BEEF, TF, -60.0) < 0.652);
         assert!(frozen_fraction_of_water(&LEAN_BEEF, TF, -60.0) > 0.83);
@@ -133,11 +121,7 @@ mod tests {
 
     #[test]
     fn freezing_point_follows_moisture() {
-        assert_relative_eq!(
-            freezing_point_at_moisture(TF, 0.74, 0.74).unwrap(),
-            TF,
-            max_relative = 1e-12
-        );
+        assert_relative_eq!(freezing_point_at_moisture(TF, 0.74, 0.74).unwrap(), TF, max_relative = 1e-12);
         let drier = freezing_point_at_moisture(TF, 0.74, 0.5).unwrap();
         assert!(drier < TF);
         assert_eq!(freezing_point_at_moisture(TF, 0.74, 0.02), None);

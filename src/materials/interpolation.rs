@@ -58,11 +58,7 @@ fn bracket(levels: &[f64], x: f64, logarithmic: bool) -> (Vec<(f64, f64)>, bool)
         return (vec![(first, 1.0)], true);
     }
     if levels.iter().any(|&level| same(level, x)) {
-        let level = levels
-            .iter()
-            .copied()
-            .find(|&level| same(level, x))
-            .unwrap_or(x);
+        let level = levels.iter().copied().find(|&level| same(level, x)).unwrap_or(x);
         return (vec![(level, 1.0)], false);
     }
     if x < first {
@@ -88,12 +84,7 @@ fn range_note(levels: &[f64]) -> String {
 
 /// Interpolate `points` at (`freq_mhz`, `temp_c`, `moisture_wb`). `moisture_wb` is used only when
 /// the points carry moisture; it must then be given (the caller supplies the nominal value).
-pub fn interpolate(
-    points: &[TablePoint],
-    freq_mhz: f64,
-    temp_c: f64,
-    moisture_wb: Option<f64>,
-) -> Interpolated {
+pub fn interpolate(points: &[TablePoint], freq_mhz: f64, temp_c: f64, moisture_wb: Option<f64>) -> Interpolated {
     let mut weights = vec![0.0; points.len()];
     let mut out_of_range = Vec::new();
     let freq_levels = levels(points.iter().map(|p| p.freq_mhz));
@@ -105,9 +96,7 @@ pub fn interpolate(
         ));
     }
     for (freq, freq_weight) in freq_bracket {
-        let at_freq: Vec<usize> = (0..points.len())
-            .filter(|&i| same(points[i].freq_mhz, freq))
-            .collect();
+        let at_freq: Vec<usize> = (0..points.len()).filter(|&i| same(points[i].freq_mhz, freq)).collect();
         let has_moisture = at_freq.iter().any(|&i| points[i].moisture_wb.is_some());
         let moisture_groups: Vec<(Option<f64>, f64)> = if has_moisture {
             let moisture_levels = levels(at_freq.iter().filter_map(|&i| points[i].moisture_wb));
@@ -119,10 +108,7 @@ pub fn interpolate(
                     range_note(&moisture_levels)
                 ));
             }
-            moisture_bracket
-                .into_iter()
-                .map(|(m, w)| (Some(m), w))
-                .collect()
+            moisture_bracket.into_iter().map(|(m, w)| (Some(m), w)).collect()
         } else {
             vec![(None, 1.0)]
         };
@@ -150,11 +136,7 @@ pub fn interpolate(
             }
             for (temp, temp_weight) in temp_bracket {
                 // Several points at the same (f, m, T) would be duplicates; they share the weight.
-                let matching: Vec<usize> = group
-                    .iter()
-                    .copied()
-                    .filter(|&i| same(points[i].temp_c, temp))
-                    .collect();
+                let matching: Vec<usize> = group.iter().copied().filter(|&i| same(points[i].temp_c, temp)).collect();
                 let share = 1.0 / matching.len().max(1) as f64;
                 for i in matching {
                     weights[i] += freq_weight * moisture_weight * temp_weight * share;
@@ -173,12 +155,7 @@ pub fn interpolate(
         }
     }
     out_of_range.dedup();
-    Interpolated {
-        eps_real,
-        eps_imag,
-        points: used,
-        out_of_range,
-    }
+    Interpolated { eps_real, eps_imag, points: used, out_of_range }
 }
 
 #[cfg(test)]
@@ -187,14 +164,7 @@ mod tests {
     use approx::assert_relative_eq;
 
     fn point(freq_mhz: f64, temp_c: f64, moisture: Option<f64>, re: f64, im: f64) -> TablePoint {
-        TablePoint {
-            freq_mhz,
-            temp_c,
-            moisture_wb: moisture,
-            eps_real: re,
-            eps_imag: im,
-            source: "s".into(),
-        }
+        TablePoint { freq_mhz, temp_c, moisture_wb: moisture, eps_real: re, eps_imag: im, source: "s".into() }
     }
 
     fn grid() -> Vec<TablePoint> {
@@ -244,10 +214,7 @@ mod tests {
 
     #[test]
     fn moisture_axis() {
-        let table = vec![
-            point(2450.0, 20.0, Some(0.0), 2.0, 0.1),
-            point(2450.0, 20.0, Some(0.2), 4.0, 1.1),
-        ];
+        let table = vec![point(2450.0, 20.0, Some(0.0), 2.0, 0.1), point(2450.0, 20.0, Some(0.2), 4.0, 1.1)];
         let result = interpolate(&table, 2450.0, 20.0, Some(0.1));
         assert_relative_eq!(result.eps_real, 3.0, max_relative = 1e-12);
         assert_relative_eq!(result.eps_imag, 0.6, max_relative = 1e-12);

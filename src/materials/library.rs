@@ -45,6 +45,7 @@ impl Confidence {
 
 /// A source of data: the publication, where in it, and how sure the value is.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct Source {
     /// Short key used by data points (`jha-2011-t4`).
     pub id: String,
@@ -59,12 +60,7 @@ pub struct Source {
 impl Source {
     /// `citation, locator (confidence)`.
     pub fn summary(&self) -> String {
-        format!(
-            "{}, {} ({})",
-            self.citation,
-            self.locator,
-            self.confidence.as_str()
-        )
+        format!("{}, {} ({})", self.citation, self.locator, self.confidence.as_str())
     }
 }
 
@@ -123,6 +119,7 @@ impl Category {
 
 /// One measured or recalled permittivity.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct TablePoint {
     /// Frequency, MHz.
     pub freq_mhz: f64,
@@ -141,6 +138,7 @@ pub struct TablePoint {
 
 /// A tabulated specific heat.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct SpecificHeatPoint {
     /// Temperature, degC.
     pub temp_c: f64,
@@ -150,7 +148,7 @@ pub struct SpecificHeatPoint {
 
 /// How the material stores and releases heat.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
-#[serde(tag = "model", rename_all = "snake_case")]
+#[serde(tag = "model", rename_all = "snake_case", deny_unknown_fields)]
 pub enum ThermalModel {
     /// Liquid water (IAPWS saturation-line enthalpy).
     Water {
@@ -199,7 +197,7 @@ pub enum ThermalModel {
 
 /// How the material's permittivity is obtained.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
-#[serde(tag = "model", rename_all = "snake_case")]
+#[serde(tag = "model", rename_all = "snake_case", deny_unknown_fields)]
 pub enum DielectricModel {
     /// Liquid water and NaCl solutions: Ellison (2007) plus the saline model.
     Water {
@@ -281,6 +279,7 @@ pub enum DielectricModel {
 
 /// Published measurements kept beside a model-based entry, to test the model against.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct ReferencePoint {
     /// Frequency, MHz.
     pub freq_mhz: f64,
@@ -300,6 +299,7 @@ pub struct ReferencePoint {
 
 /// One material of the library (or defined by the user).
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct Material {
     /// Identifier, lower-case with hyphens (`beef-lean`).
     pub name: String,
@@ -387,8 +387,7 @@ struct LibraryFile {
 
 /// Parse and check a library document; every problem is reported.
 pub fn parse_library(text: &str) -> Result<Library, Vec<String>> {
-    let file: LibraryFile =
-        serde_json::from_str(text).map_err(|error| vec![format!("library.json: {error}")])?;
+    let file: LibraryFile = serde_json::from_str(text).map_err(|error| vec![format!("library.json: {error}")])?;
     let mut problems = Vec::new();
     let mut materials = Vec::with_capacity(file.materials.len());
     for (index, mut material) in file.materials.into_iter().enumerate() {
@@ -396,10 +395,7 @@ pub fn parse_library(text: &str) -> Result<Library, Vec<String>> {
             problems.push(format!("materials[{index}] ({}): {error}", material.name));
         }
         if materials.iter().any(|m: &Material| m.name == material.name) {
-            problems.push(format!(
-                "materials[{index}]: duplicate name {}",
-                material.name
-            ));
+            problems.push(format!("materials[{index}]: duplicate name {}", material.name));
         }
         material.source = material.source_summary();
         materials.push(material);
@@ -420,11 +416,7 @@ pub fn library() -> &'static Library {
 
 /// An error for an unknown material name, listing what exists.
 pub fn unknown_material(name: &str) -> InputError {
-    InputError::new(
-        "material",
-        format!("{name:?}"),
-        format!("one of: {}", library().names().join(", ")),
-    )
+    InputError::new("material", format!("{name:?}"), format!("one of: {}", library().names().join(", ")))
 }
 
 #[cfg(test)]
@@ -449,10 +441,7 @@ mod tests {
     fn names_are_lower_case_with_hyphens_and_labels_are_set() {
         for material in library() {
             assert!(
-                material
-                    .name
-                    .chars()
-                    .all(|c| c.is_ascii_lowercase() || c.is_ascii_digit() || c == '-'),
+                material.name.chars().all(|c| c.is_ascii_lowercase() || c.is_ascii_digit() || c == '-'),
                 "{}",
                 material.name
             );
@@ -482,8 +471,8 @@ mod tests {
         use std::collections::BTreeSet;
         let present: BTreeSet<&str> = library().iter().map(|m| m.category.as_str()).collect();
         for needed in [
-            "water", "meat", "bakery", "produce", "dairy", "wood", "paper", "textile", "rubber",
-            "ceramic", "foundry", "polymer",
+            "water", "meat", "bakery", "produce", "dairy", "wood", "paper", "textile", "rubber", "ceramic", "foundry",
+            "polymer",
         ] {
             assert!(present.contains(needed), "no {needed} material");
         }

@@ -7,6 +7,7 @@
 //! - alpha = 1/2: CRIM, complex refractive index model (Birchak et al. 1974);
 //! - alpha = 1/3: Looyenga (H. Looyenga, Physica 31:401, 1965; Landau-Lifshitz-Looyenga);
 //! - alpha -> 0:  Lichtenecker logarithmic rule, ln eps_mix = sum_i v_i ln eps_i (Lichtenecker 1926).
+//!
 //! Complex powers use the principal branch (shared/sources.md 5). Assumptions: isotropic random
 //! mixture, no interaction between phases; bound water at low moisture has a lower permittivity than
 //! free water, so these rules over-predict eps'' of nearly dry materials.
@@ -53,11 +54,7 @@ impl MixingRule {
 /// Mix phases given as (volume fraction, eps' - j eps''). Fractions are renormalized to sum to 1;
 /// phases with zero fraction are skipped. Returns vacuum for an empty mixture.
 pub fn mix(phases: &[(f64, Complex)], rule: MixingRule) -> Complex {
-    let total: f64 = phases
-        .iter()
-        .map(|(v, _)| v.max(0.0))
-        .filter(|v| v.is_finite())
-        .sum();
+    let total: f64 = phases.iter().map(|(v, _)| v.max(0.0)).filter(|v| v.is_finite()).sum();
     if total <= 0.0 || !total.is_finite() {
         return Complex::ONE;
     }
@@ -68,11 +65,7 @@ pub fn mix(phases: &[(f64, Complex)], rule: MixingRule) -> Complex {
         if v <= 0.0 || !v.is_finite() {
             continue;
         }
-        let term = if alpha == 0.0 {
-            eps.ln()
-        } else {
-            eps.powf(alpha)
-        };
+        let term = if alpha == 0.0 { eps.ln() } else { eps.powf(alpha) };
         sum = sum + term.scale(v);
     }
     if alpha == 0.0 {
@@ -87,12 +80,8 @@ mod tests {
     use super::*;
     use approx::assert_relative_eq;
 
-    const RULES: [MixingRule; 4] = [
-        MixingRule::Linear,
-        MixingRule::Crim,
-        MixingRule::Looyenga,
-        MixingRule::Lichtenecker,
-    ];
+    const RULES: [MixingRule; 4] =
+        [MixingRule::Linear, MixingRule::Crim, MixingRule::Looyenga, MixingRule::Lichtenecker];
 
     #[test]
     fn a_single_phase_is_returned_unchanged_by_every_rule() {
@@ -113,16 +102,9 @@ mod tests {
         // Pedophysics `LR` docstring example (a code example, not a paper; shared/sources.md 5):
         // porosity 1 - 1.3/2.65, water content 0.3, eps air 1, solid 4, water 80, alpha = 0.5 -> 15.006.
         let porosity = 1.0 - 1.3 / 2.65;
-        let phases = [
-            (0.3, Complex::real(80.0)),
-            (porosity - 0.3, Complex::real(1.0)),
-            (1.0 - porosity, Complex::real(4.0)),
-        ];
-        assert_relative_eq!(
-            mix(&phases, MixingRule::Crim).re,
-            15.006_70,
-            max_relative = 1e-5
-        );
+        let phases =
+            [(0.3, Complex::real(80.0)), (porosity - 0.3, Complex::real(1.0)), (1.0 - porosity, Complex::real(4.0))];
+        assert_relative_eq!(mix(&phases, MixingRule::Crim).re, 15.006_70, max_relative = 1e-5);
     }
 
     #[test]
@@ -137,10 +119,7 @@ mod tests {
 
     #[test]
     fn linear_rule_is_the_volume_average() {
-        let phases = [
-            (0.25, Complex::new(80.0, -12.0)),
-            (0.75, Complex::new(4.0, -0.4)),
-        ];
+        let phases = [(0.25, Complex::new(80.0, -12.0)), (0.75, Complex::new(4.0, -0.4))];
         let mixed = mix(&phases, MixingRule::Linear);
         assert_relative_eq!(mixed.re, 23.0, max_relative = 1e-12);
         assert_relative_eq!(mixed.im, -3.3, max_relative = 1e-12);

@@ -39,19 +39,10 @@ pub(crate) struct ModelValue {
 /// Fat phase permittivity: milk fat (solid, 0 % moisture) at 2.45 GHz, eps 2.6 - j0.2 (Datta &
 /// Ramaswamy 2001, as reproduced in Table 1.2 of Introduction to Advanced Food Process Engineering;
 /// published). Fats hardly disperse in frequency, so it is used at all frequencies (common practice).
-pub(crate) const FAT_EPS: Complex = Complex {
-    re: 2.6,
-    im: -0.2,
-};
+pub(crate) const FAT_EPS: Complex = Complex { re: 2.6, im: -0.2 };
 
 /// Flag `value` of `axis` outside [min, max].
-pub(crate) fn flag_range(
-    flags: &mut Vec<String>,
-    axis: &str,
-    value: f64,
-    range: [f64; 2],
-    what: &str,
-) {
+pub(crate) fn flag_range(flags: &mut Vec<String>, axis: &str, value: f64, range: [f64; 2], what: &str) {
     if value < range[0] || value > range[1] {
         flags.push(format!(
             "{axis} = {value} is outside the range of {what} ({} to {}); the value is an extrapolation",
@@ -88,25 +79,14 @@ pub(crate) fn water_value(
     let model = if salt_fraction > 0.0 || conductivity_s_per_m.is_some() {
         let conduction = match conductivity_s_per_m {
             Some(sigma) => format!("user-given conductivity {sigma} S/m"),
-            None => format!(
-                "conductivity {:.4} S/m from {SALINE_MODEL}",
-                brine.conductivity_s_per_m
-            ),
+            None => format!("conductivity {:.4} S/m from {SALINE_MODEL}", brine.conductivity_s_per_m),
         };
-        notes.push(format!(
-            "ionic conductivity {:.4} S/m",
-            brine.conductivity_s_per_m
-        ));
+        notes.push(format!("ionic conductivity {:.4} S/m", brine.conductivity_s_per_m));
         format!("{WATER_MODEL}; {conduction}")
     } else {
         WATER_MODEL.to_string()
     };
-    ModelValue {
-        eps: brine.eps,
-        model,
-        out_of_range,
-        notes,
-    }
+    ModelValue { eps: brine.eps, model, out_of_range, notes }
 }
 
 pub(crate) fn ice_value(frequency_hz: f64, temp_c: f64) -> ModelValue {
@@ -118,13 +98,7 @@ pub(crate) fn ice_value(frequency_hz: f64, temp_c: f64) -> ModelValue {
         [ice::MODEL_TEMP_MIN_C, ice::MODEL_TEMP_MAX_C],
         "the Maetzler (2006) ice model (above 0 degC ice melts)",
     );
-    flag_range(
-        &mut out_of_range,
-        "freq_mhz",
-        frequency_hz / 1e6,
-        [10.0, 300_000.0],
-        "the Maetzler (2006) ice model",
-    );
+    flag_range(&mut out_of_range, "freq_mhz", frequency_hz / 1e6, [10.0, 300_000.0], "the Maetzler (2006) ice model");
     ModelValue {
         eps: ice::permittivity(frequency_hz, temp_c.min(0.0)),
         model: "Maetzler (2006) pure ice, Thermal Microwave Radiation (IET) pp. 456-461".into(),
@@ -142,17 +116,11 @@ pub(crate) fn moist_fractions(
 ) -> (f64, f64, f64, f64) {
     let water_per_dry = moisture_wb / (1.0 - moisture_wb);
     let v_solid = dry_bulk_density / solid_density;
-    let v_water =
-        dry_bulk_density * water_per_dry / composition::water_density_kg_per_m3(temp_c.max(0.0));
+    let v_water = dry_bulk_density * water_per_dry / composition::water_density_kg_per_m3(temp_c.max(0.0));
     let filled = v_solid + v_water;
     let swell = filled.max(1.0);
     let bulk_density = dry_bulk_density * (1.0 + water_per_dry) / swell;
-    (
-        v_solid / swell,
-        v_water / swell,
-        (1.0 - filled).max(0.0),
-        bulk_density,
-    )
+    (v_solid / swell, v_water / swell, (1.0 - filled).max(0.0), bulk_density)
 }
 
 pub(crate) fn moist_value(
@@ -181,33 +149,11 @@ pub(crate) fn moist_value(
     };
     let x = moisture_wb.unwrap_or(*nominal);
     let mut out_of_range = Vec::new();
-    flag_range(
-        &mut out_of_range,
-        "moisture_wb",
-        x,
-        *moisture_range_wb,
-        "this material's moisture model",
-    );
-    flag_range(
-        &mut out_of_range,
-        "temp_c",
-        temp_c,
-        *temp_range_c,
-        "this material's moisture model",
-    );
-    flag_range(
-        &mut out_of_range,
-        "freq_mhz",
-        frequency_hz / 1e6,
-        *freq_range_mhz,
-        "this material's moisture model",
-    );
-    let (v_solid, v_water, v_air, _) = moist_fractions(
-        *dry_bulk_density_kg_per_m3,
-        *solid_density_kg_per_m3,
-        x,
-        temp_c,
-    );
+    flag_range(&mut out_of_range, "moisture_wb", x, *moisture_range_wb, "this material's moisture model");
+    flag_range(&mut out_of_range, "temp_c", temp_c, *temp_range_c, "this material's moisture model");
+    flag_range(&mut out_of_range, "freq_mhz", frequency_hz / 1e6, *freq_range_mhz, "this material's moisture model");
+    let (v_solid, v_water, v_air, _) =
+        moist_fractions(*dry_bulk_density_kg_per_m3, *solid_density_kg_per_m3, x, temp_c);
     let salt = salt_pct.unwrap_or(*default_salt) / 100.0;
     let brine_fraction = if x + salt > 0.0 { salt / (x + salt) } else { 0.0 };
     let brine = saline::permittivity(
@@ -216,21 +162,12 @@ pub(crate) fn moist_value(
         brine_fraction.min(saline::SATURATION_MASS_FRACTION),
         conductivity_s_per_m,
     );
-    let mut notes = vec![format!(
-        "volume fractions: solid {v_solid:.3}, water {v_water:.3}, air {v_air:.3}"
-    )];
+    let mut notes = vec![format!("volume fractions: solid {v_solid:.3}, water {v_water:.3}, air {v_air:.3}")];
     if brine_fraction > saline::SATURATION_MASS_FRACTION {
         notes.push("the water is saturated with salt; the excess is taken as undissolved".into());
     }
     let solid = Complex::new(*solid_eps_real, -solid_eps_imag);
-    let eps = mix(
-        &[
-            (v_solid, solid),
-            (v_water, brine.eps),
-            (v_air, Complex::ONE),
-        ],
-        *mixing_rule,
-    );
+    let eps = mix(&[(v_solid, solid), (v_water, brine.eps), (v_air, Complex::ONE)], *mixing_rule);
     Some(ModelValue {
         eps,
         model: format!(
@@ -245,12 +182,7 @@ pub(crate) fn moist_value(
 
 /// The composition and freezing point of a food at `moisture_wb` (nominal if `None`).
 pub(crate) fn food_state(material: &Material, moisture_wb: Option<f64>) -> Option<(Composition, Option<f64>)> {
-    let ThermalModel::Composition {
-        composition,
-        initial_freezing_point_c,
-        ..
-    } = &material.thermal
-    else {
+    let ThermalModel::Composition { composition, initial_freezing_point_c, .. } = &material.thermal else {
         return None;
     };
     match moisture_wb {
@@ -273,12 +205,7 @@ pub(crate) struct FrozenPhases {
 }
 
 /// Volume fractions of the phases of a freezing food, and the brine concentration.
-pub(crate) fn frozen_phases(
-    food: &Composition,
-    tf_c: Option<f64>,
-    temp_c: f64,
-    salt_fraction: f64,
-) -> FrozenPhases {
+pub(crate) fn frozen_phases(food: &Composition, tf_c: Option<f64>, temp_c: f64, salt_fraction: f64) -> FrozenPhases {
     let ice_mass = tf_c.map_or(0.0, |tf| freezing::ice_mass_fraction(food, tf, temp_c));
     // Bound water loses its mobility as the food freezes, in step with the freezable water:
     // mobile share Tf/T below Tf, all of it at and above Tf (a modelling choice, see module text).
@@ -296,16 +223,12 @@ pub(crate) fn frozen_phases(
     };
     let dissolved = salt_fraction.min(dissolved_capacity);
     let undissolved = salt_fraction - dissolved;
-    let brine_mass_fraction = if liquid + dissolved > 0.0 {
-        dissolved / (liquid + dissolved)
-    } else {
-        0.0
-    };
+    let brine_mass_fraction = if liquid + dissolved > 0.0 { dissolved / (liquid + dissolved) } else { 0.0 };
     let t = temp_c;
-    let ice_volume = ice_mass / composition::ice_density_kg_per_m3(t)
-        + immobile / composition::water_density_kg_per_m3(t);
-    let brine_volume = (liquid + dissolved)
-        / (composition::water_density_kg_per_m3(t) * (1.0 + 0.7 * brine_mass_fraction));
+    let ice_volume =
+        ice_mass / composition::ice_density_kg_per_m3(t) + immobile / composition::water_density_kg_per_m3(t);
+    let brine_volume =
+        (liquid + dissolved) / (composition::water_density_kg_per_m3(t) * (1.0 + 0.7 * brine_mass_fraction));
     let fat_volume = food.fat / composition::polynomial(composition::FAT_DENSITY, t);
     let solids_volume = food.protein / composition::polynomial(composition::PROTEIN_DENSITY, t)
         + food.carbohydrate / composition::polynomial(composition::CARBOHYDRATE_DENSITY, t)
@@ -345,39 +268,16 @@ pub(crate) fn frozen_value(
     };
     let (food, tf) = food_state(material, moisture_wb)?;
     let mut out_of_range = Vec::new();
-    flag_range(
-        &mut out_of_range,
-        "temp_c",
-        temp_c,
-        *temp_range_c,
-        "this food's freezing model",
-    );
-    flag_range(
-        &mut out_of_range,
-        "freq_mhz",
-        frequency_hz / 1e6,
-        *freq_range_mhz,
-        "this food's freezing model",
-    );
-    flag_range(
-        &mut out_of_range,
-        "moisture_wb",
-        food.water,
-        *moisture_range_wb,
-        "this food's freezing model",
-    );
+    flag_range(&mut out_of_range, "temp_c", temp_c, *temp_range_c, "this food's freezing model");
+    flag_range(&mut out_of_range, "freq_mhz", frequency_hz / 1e6, *freq_range_mhz, "this food's freezing model");
+    flag_range(&mut out_of_range, "moisture_wb", food.water, *moisture_range_wb, "this food's freezing model");
     let salt_fraction = salt_pct.unwrap_or(*default_salt) / 100.0;
     let phases = frozen_phases(&food, tf, temp_c, salt_fraction);
     let brine = saline::permittivity(frequency_hz, temp_c, phases.brine_mass_fraction, None);
     let ice_eps = ice::permittivity(frequency_hz, temp_c.min(0.0));
     let solids = Complex::new(*solids_eps_real, -solids_eps_imag);
     let eps = mix(
-        &[
-            (phases.ice, ice_eps),
-            (phases.brine, brine.eps),
-            (phases.fat, FAT_EPS),
-            (phases.solids, solids),
-        ],
+        &[(phases.ice, ice_eps), (phases.brine, brine.eps), (phases.fat, FAT_EPS), (phases.solids, solids)],
         *mixing_rule,
     );
     let frozen = tf.map_or(0.0, |tf| freezing::frozen_fraction_of_water(&food, tf, temp_c));

@@ -11,10 +11,10 @@
 //!   Fitted to NaCl solutions 20-200 degC, up to about 5 mol/kg.
 //! - below 25 degC: its 25 degC value times the temperature ratio exp(-Delta beta) of Stogryn (1971)
 //!   as given by Klein & Swift (1977), IEEE Trans. Antennas Propag. AP-25(1):104-111 (Delta = 25 - t,
-//!   S in g/kg): beta = 2.0333e-2 + 1.266e-4 Delta + 2.464e-6 Delta^2 - S (1.849e-5 - 2.551e-7 Delta
-//!   + 2.551e-8 Delta^2). Sen & Goode's form turns negative below about 0 degC, the Stogryn ratio does
-//!   not, and the two agree in slope at 25 degC (2.0 vs 2.2 %/K for 1 % NaCl). Below -2 degC (only the
-//!   concentrated brine of frozen foods) it is an extrapolation.
+//!   S in g/kg): beta = 2.0333e-2 + 1.266e-4 Delta + 2.464e-6 Delta^2 - S (1.849e-5 -
+//!   2.551e-7 Delta + 2.551e-8 Delta^2). Sen & Goode's form turns negative below about 0 degC, the Stogryn ratio does
+//!   not, and the two agree in slope at 25 degC (2.0 vs 2.2 %/K for 1 % NaCl). Below -2 degC (only
+//!   the concentrated brine of frozen foods) it is an extrapolation.
 //!
 //! Dipolar part: Stogryn (1971), IEEE Trans. MTT-19:733-736, normality factors (shared/sources.md 2,
 //! read in public code): eps_s(N) = eps_s(0) a(N), a = 1 - 0.2551 N + 5.151e-2 N^2 - 6.889e-3 N^3;
@@ -135,11 +135,7 @@ pub fn permittivity(
     let dipolar = water::permittivity_scaled(frequency_hz, temp_c, strength_factor, time_factor);
     let sigma = conductivity_override_s_per_m.unwrap_or_else(|| conductivity_s_per_m(temp_c, w));
     let conduction_loss = sigma / (2.0 * PI * frequency_hz * VACUUM_PERMITTIVITY_F_PER_M);
-    BrinePermittivity {
-        eps: dipolar - Complex::new(0.0, conduction_loss),
-        conductivity_s_per_m: sigma,
-        dipolar_held,
-    }
+    BrinePermittivity { eps: dipolar - Complex::new(0.0, conduction_loss), conductivity_s_per_m: sigma, dipolar_held }
 }
 
 #[cfg(test)]

@@ -37,55 +37,14 @@ pub const SATURATION_TEMP_MAX_C: f64 = 370.0;
 /// Saturation pressure at [`SATURATION_TEMP_MIN_C`] (the triple point), Pa.
 pub const TRIPLE_POINT_PRESSURE_PA: f64 = 611.657;
 
-const A: [f64; 6] = [
-    -7.859_517_83,
-    1.844_082_59,
-    -11.786_649_7,
-    22.680_741_1,
-    -15.961_871_9,
-    1.801_225_02,
-];
+const A: [f64; 6] = [-7.859_517_83, 1.844_082_59, -11.786_649_7, 22.680_741_1, -15.961_871_9, 1.801_225_02];
 const A_EXP: [f64; 6] = [1.0, 1.5, 3.0, 3.5, 4.0, 7.5];
-const B: [f64; 6] = [
-    1.992_740_64,
-    1.099_653_42,
-    -0.510_839_303,
-    -1.754_934_79,
-    -45.517_035_2,
-    -6.746_944_50e5,
-];
-const B_EXP: [f64; 6] = [
-    1.0 / 3.0,
-    2.0 / 3.0,
-    5.0 / 3.0,
-    16.0 / 3.0,
-    43.0 / 3.0,
-    110.0 / 3.0,
-];
-const C: [f64; 6] = [
-    -2.031_502_40,
-    -2.683_029_40,
-    -5.386_264_92,
-    -17.299_160_5,
-    -44.758_658_1,
-    -63.920_106_3,
-];
-const C_EXP: [f64; 6] = [
-    2.0 / 6.0,
-    4.0 / 6.0,
-    8.0 / 6.0,
-    18.0 / 6.0,
-    37.0 / 6.0,
-    71.0 / 6.0,
-];
-const D_ALPHA: f64 = -1135.905_627_715;
-const D: [f64; 5] = [
-    -5.651_349_98e-8,
-    2690.666_31,
-    127.287_297,
-    -135.003_439,
-    0.981_825_814,
-];
+const B: [f64; 6] = [1.992_740_64, 1.099_653_42, -0.510_839_303, -1.754_934_79, -45.517_035_2, -6.746_944_50e5];
+const B_EXP: [f64; 6] = [1.0 / 3.0, 2.0 / 3.0, 5.0 / 3.0, 16.0 / 3.0, 43.0 / 3.0, 110.0 / 3.0];
+const C: [f64; 6] = [-2.031_502_40, -2.683_029_40, -5.386_264_92, -17.299_160_5, -44.758_658_1, -63.920_106_3];
+const C_EXP: [f64; 6] = [2.0 / 6.0, 4.0 / 6.0, 8.0 / 6.0, 18.0 / 6.0, 37.0 / 6.0, 71.0 / 6.0];
+const D_ALPHA: f64 = -1_135.905_627_715;
+const D: [f64; 5] = [-5.651_349_98e-8, 2_690.666_31, 127.287_297, -135.003_439, 0.981_825_814];
 const D_EXP: [f64; 5] = [-19.0, 1.0, 4.5, 5.0, 54.5];
 
 /// Ice specific heat at 0 degC, J/(kg K) (IAPWS-06, shared/sources.md section 7).
@@ -94,12 +53,7 @@ const ICE_CP_AT_ZERO_J_PER_KG_K: f64 = 2096.7;
 const ICE_CP_SLOPE_J_PER_KG_K2: f64 = (2096.7 - 1949.8) / 20.0;
 
 fn check_saturation_temp(temp_c: f64) -> Result<f64, InputError> {
-    require_in(
-        "temp_c",
-        temp_c,
-        SATURATION_TEMP_MIN_C,
-        SATURATION_TEMP_MAX_C,
-    )
+    require_in("temp_c", temp_c, SATURATION_TEMP_MIN_C, SATURATION_TEMP_MAX_C)
 }
 
 /// tau = 1 - T/Tc for a temperature already checked.
@@ -155,8 +109,7 @@ fn alpha_j_per_kg(temp_c: f64) -> f64 {
 
 fn liquid_enthalpy_unchecked(temp_c: f64) -> f64 {
     let t_k = temp_c + ZERO_CELSIUS_K;
-    alpha_j_per_kg(temp_c)
-        + t_k / liquid_density_unchecked(temp_c) * saturation_slope_pa_per_k(temp_c)
+    alpha_j_per_kg(temp_c) + t_k / liquid_density_unchecked(temp_c) * saturation_slope_pa_per_k(temp_c)
 }
 
 /// Saturation (vapour) pressure of water at `temp_c`, Pa. Accepts 0.01 to 370 degC.
@@ -188,8 +141,7 @@ pub fn saturated_liquid_enthalpy_j_per_kg(temp_c: f64) -> Result<f64, InputError
 pub fn saturated_vapour_enthalpy_j_per_kg(temp_c: f64) -> Result<f64, InputError> {
     let temp_c = check_saturation_temp(temp_c)?;
     let t_k = temp_c + ZERO_CELSIUS_K;
-    Ok(alpha_j_per_kg(temp_c)
-        + t_k / vapour_density_unchecked(temp_c) * saturation_slope_pa_per_k(temp_c))
+    Ok(alpha_j_per_kg(temp_c) + t_k / vapour_density_unchecked(temp_c) * saturation_slope_pa_per_k(temp_c))
 }
 
 /// Latent heat of vaporization h_fg(T) = h'' - h' = T (dp/dT) (1/rho'' - 1/rho'), J/kg.
@@ -197,8 +149,7 @@ pub fn saturated_vapour_enthalpy_j_per_kg(temp_c: f64) -> Result<f64, InputError
 pub fn latent_heat_vaporization_j_per_kg(temp_c: f64) -> Result<f64, InputError> {
     let temp_c = check_saturation_temp(temp_c)?;
     let t_k = temp_c + ZERO_CELSIUS_K;
-    let volume_change =
-        1.0 / vapour_density_unchecked(temp_c) - 1.0 / liquid_density_unchecked(temp_c);
+    let volume_change = 1.0 / vapour_density_unchecked(temp_c) - 1.0 / liquid_density_unchecked(temp_c);
     Ok(t_k * saturation_slope_pa_per_k(temp_c) * volume_change)
 }
 
@@ -243,9 +194,7 @@ pub(crate) fn ice_cp_unchecked(temp_c: f64) -> f64 {
 /// h_ice(T) = -L_f + integral from 0 to T of cp_ice dT (the reference differs from the IAPWS
 /// triple-point one by 0.01 K x 4.2 kJ/(kg K) = 0.04 kJ/kg, far below the accuracy needed here).
 pub(crate) fn ice_enthalpy_unchecked(temp_c: f64) -> f64 {
-    -LATENT_HEAT_FUSION_J_PER_KG
-        + ICE_CP_AT_ZERO_J_PER_KG_K * temp_c
-        + 0.5 * ICE_CP_SLOPE_J_PER_KG_K2 * temp_c * temp_c
+    -LATENT_HEAT_FUSION_J_PER_KG + ICE_CP_AT_ZERO_J_PER_KG_K * temp_c + 0.5 * ICE_CP_SLOPE_J_PER_KG_K2 * temp_c * temp_c
 }
 
 /// Liquid-water enthalpy relative to the liquid at 0 degC, J/kg, for any temperature the core
@@ -271,11 +220,7 @@ mod tests {
     fn triple_and_normal_boiling_points() {
         // IAPWS: p(273.16 K) = 611.657 Pa; the normal boiling point at 101 325 Pa is 99.974 degC
         // on ITS-90 (IAPWS-95; IF97 gives 99.9743).
-        assert_relative_eq!(
-            saturation_pressure_pa(0.01).unwrap(),
-            611.657,
-            max_relative = 1e-4
-        );
+        assert_relative_eq!(saturation_pressure_pa(0.01).unwrap(), 611.657, max_relative = 1e-4);
         assert_relative_eq!(boiling_point_c(101_325.0).unwrap(), 99.974, epsilon = 0.002);
     }
 
@@ -290,22 +235,15 @@ mod tests {
     #[test]
     fn latent_heat_equals_vapour_minus_liquid_enthalpy() {
         for t in [1.0, 50.0, 100.0, 200.0] {
-            let difference = saturated_vapour_enthalpy_j_per_kg(t).unwrap()
-                - saturated_liquid_enthalpy_j_per_kg(t).unwrap();
-            assert_relative_eq!(
-                latent_heat_vaporization_j_per_kg(t).unwrap(),
-                difference,
-                max_relative = 1e-12
-            );
+            let difference =
+                saturated_vapour_enthalpy_j_per_kg(t).unwrap() - saturated_liquid_enthalpy_j_per_kg(t).unwrap();
+            assert_relative_eq!(latent_heat_vaporization_j_per_kg(t).unwrap(), difference, max_relative = 1e-12);
         }
     }
 
     #[test]
     fn out_of_range_is_refused_with_the_field() {
-        assert_eq!(
-            latent_heat_vaporization_j_per_kg(-5.0).unwrap_err().field,
-            "temp_c"
-        );
+        assert_eq!(latent_heat_vaporization_j_per_kg(-5.0).unwrap_err().field, "temp_c");
         assert_eq!(boiling_point_c(10.0).unwrap_err().field, "pressure_pa");
         assert!(saturation_pressure_pa(f64::NAN).is_err());
         assert!(ice_specific_heat_j_per_kg_k(1.0).is_err());

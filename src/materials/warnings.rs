@@ -86,14 +86,8 @@ pub fn runaway_risk(
     let mut samples = Vec::with_capacity(count);
     for i in 0..count {
         let temp_c = low + span * i as f64 / (count - 1) as f64;
-        let state = MaterialState {
-            temp_c,
-            ..*state_from
-        };
-        samples.push((
-            temp_c,
-            permittivity(material, frequency_hz, &state)?.eps.eps_imag,
-        ));
+        let state = MaterialState { temp_c, ..*state_from };
+        samples.push((temp_c, permittivity(material, frequency_hz, &state)?.eps.eps_imag));
     }
     // Find the rising stretch (consecutive samples with rising eps'') with the largest ratio.
     let mut best: Option<(usize, usize, f64)> = None;
@@ -132,11 +126,7 @@ pub fn runaway_risk(
     };
     let (t0, e0) = samples[start];
     let (t1, e1) = samples[end];
-    let ratio_text = if ratio.is_finite() {
-        format!("{ratio:.2}x")
-    } else {
-        "from zero".to_string()
-    };
+    let ratio_text = if ratio.is_finite() { format!("{ratio:.2}x") } else { "from zero".to_string() };
     let message = format!(
         "{}: eps'' rises from {e0:.3} to {e1:.3} ({ratio_text}) between {t0:.1} and {t1:.1} degC at {:.2} MHz; hotter spots absorb more and can run away: control the end temperature, use pulsed power or equalizing holds",
         material.label,
@@ -188,10 +178,7 @@ pub struct BedDepthCheck {
 }
 
 /// Compare a penetration depth (`None` = lossless) with a bed depth, both in m.
-pub fn bed_depth_check(
-    penetration_depth_m: Option<f64>,
-    bed_depth_m: f64,
-) -> Result<BedDepthCheck, InputError> {
+pub fn bed_depth_check(penetration_depth_m: Option<f64>, bed_depth_m: f64) -> Result<BedDepthCheck, InputError> {
     let bed = require_positive("bed_depth_m", bed_depth_m, 10.0)?;
     let Some(dp) = penetration_depth_m else {
         return Ok(BedDepthCheck {
@@ -214,15 +201,9 @@ pub fn bed_depth_check(
             "the surface takes most of the power and the core heats by conduction: use a thinner bed or a lower frequency",
         )
     } else if ratio > 2.0 {
-        (
-            BedVerdict::Uneven,
-            "uneven even when fed from both sides: reduce the bed depth or use a lower frequency",
-        )
+        (BedVerdict::Uneven, "uneven even when fed from both sides: reduce the bed depth or use a lower frequency")
     } else if ratio > 1.0 {
-        (
-            BedVerdict::FeedBothSides,
-            "feed from both sides (top and bottom) for even heating",
-        )
+        (BedVerdict::FeedBothSides, "feed from both sides (top and bottom) for even heating")
     } else if absorbed < 0.05 {
         (
             BedVerdict::Transparent,
@@ -255,14 +236,7 @@ mod tests {
     fn tempering_beef_is_a_high_runaway_risk() {
         // Frozen lean meat: eps'' jumps about tenfold across -5..0 degC (shared/sources.md 3.2).
         let beef = library().get("beef-lean").unwrap();
-        let risk = runaway_risk(
-            beef,
-            915e6,
-            &MaterialState::at(-20.0),
-            &MaterialState::at(-1.0),
-        )
-        .unwrap()
-        .unwrap();
+        let risk = runaway_risk(beef, 915e6, &MaterialState::at(-20.0), &MaterialState::at(-1.0)).unwrap().unwrap();
         assert_eq!(risk.severity, Severity::High);
         assert!(risk.temp_to_c > -3.0);
     }
@@ -271,13 +245,7 @@ mod tests {
     fn pure_water_heating_has_no_runaway_at_2450() {
         // Pure water's eps'' falls with temperature at 2450 MHz (Ellison 2007).
         let water = library().get("water").unwrap();
-        let risk = runaway_risk(
-            water,
-            2.45e9,
-            &MaterialState::at(20.0),
-            &MaterialState::at(90.0),
-        )
-        .unwrap();
+        let risk = runaway_risk(water, 2.45e9, &MaterialState::at(20.0), &MaterialState::at(90.0)).unwrap();
         assert_eq!(risk, None);
     }
 
@@ -285,10 +253,7 @@ mod tests {
     fn salted_water_at_rf_does_run_away() {
         // At 27.12 MHz brine loss is ionic, and conductivity rises about 2 %/K.
         let water = library().get("water").unwrap();
-        let from = MaterialState {
-            salt_pct: Some(2.0),
-            ..MaterialState::at(20.0)
-        };
+        let from = MaterialState { salt_pct: Some(2.0), ..MaterialState::at(20.0) };
         let to = MaterialState { temp_c: 80.0, ..from };
         let risk = runaway_risk(water, 27.12e6, &from, &to).unwrap().unwrap();
         assert!(risk.rise_ratio > 1.5, "{risk:?}");
@@ -298,26 +263,10 @@ mod tests {
     fn bed_depth_verdicts() {
         let thin = bed_depth_check(Some(0.05), 0.02).unwrap();
         assert_eq!(thin.verdict, BedVerdict::Even);
-        assert_relative_eq!(
-            thin.far_face_power_ratio_one_side,
-            (-0.4f64).exp(),
-            max_relative = 1e-12
-        );
-        assert_eq!(
-            bed_depth_check(Some(0.05), 0.08).unwrap().verdict,
-            BedVerdict::FeedBothSides
-        );
-        assert_eq!(
-            bed_depth_check(Some(0.01), 0.1).unwrap().verdict,
-            BedVerdict::SurfaceHeating
-        );
-        assert_eq!(
-            bed_depth_check(None, 0.1).unwrap().verdict,
-            BedVerdict::Transparent
-        );
-        assert_eq!(
-            bed_depth_check(Some(0.05), -1.0).unwrap_err().field,
-            "bed_depth_m"
-        );
+        assert_relative_eq!(thin.far_face_power_ratio_one_side, (-0.4f64).exp(), max_relative = 1e-12);
+        assert_eq!(bed_depth_check(Some(0.05), 0.08).unwrap().verdict, BedVerdict::FeedBothSides);
+        assert_eq!(bed_depth_check(Some(0.01), 0.1).unwrap().verdict, BedVerdict::SurfaceHeating);
+        assert_eq!(bed_depth_check(None, 0.1).unwrap().verdict, BedVerdict::Transparent);
+        assert_eq!(bed_depth_check(Some(0.05), -1.0).unwrap_err().field, "bed_depth_m");
     }
 }

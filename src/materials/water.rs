@@ -80,22 +80,13 @@ pub fn parameters(temp_c: f64) -> EllisonParameters {
         strengths[i] = A[i] * (-B[i] * temp_c).exp();
         relaxation_times_s[i] = C[i] * (D[i] / (temp_c + TC)).exp();
     }
-    EllisonParameters {
-        static_permittivity: static_permittivity(temp_c),
-        strengths,
-        relaxation_times_s,
-    }
+    EllisonParameters { static_permittivity: static_permittivity(temp_c), strengths, relaxation_times_s }
 }
 
 /// Complex permittivity eps' - j eps'' of pure water at `frequency_hz` and `temp_c`, with the
 /// relaxation strengths scaled by `strength_factor` and the times by `time_factor` (both 1 for pure
 /// water; the saline model uses them for the depression of eps_s and tau by dissolved salt).
-pub(crate) fn permittivity_scaled(
-    frequency_hz: f64,
-    temp_c: f64,
-    strength_factor: f64,
-    time_factor: f64,
-) -> Complex {
+pub(crate) fn permittivity_scaled(frequency_hz: f64, temp_c: f64, strength_factor: f64, time_factor: f64) -> Complex {
     let t = temp_c;
     let nu = frequency_hz;
     let params = parameters(t);
@@ -126,9 +117,8 @@ pub(crate) fn permittivity_scaled(
         let minus = 2.0 * PI * tau * (f_res - nu);
         let plus_den = 1.0 + plus * plus;
         let minus_den = 1.0 + minus * minus;
-        eps_real -= (2.0 * PI * tau).powi(2)
-            * (delta / 2.0)
-            * (nu * (f_res + nu) / plus_den - nu * (f_res - nu) / minus_den);
+        eps_real -=
+            (2.0 * PI * tau).powi(2) * (delta / 2.0) * (nu * (f_res + nu) / plus_den - nu * (f_res - nu) / minus_den);
         eps_imag += PI * nu * tau * delta * (1.0 / plus_den + 1.0 / minus_den);
     }
     Complex::new(eps_real, -eps_imag)
@@ -157,11 +147,7 @@ mod tests {
     #[test]
     fn relaxation_time_at_25_c() {
         // shared/sources.md 1.6: tau_1(25 degC) = 8.576 ps [CALC from Ellison Table 2].
-        assert_relative_eq!(
-            parameters(25.0).relaxation_times_s[0],
-            8.576e-12,
-            max_relative = 1e-3
-        );
+        assert_relative_eq!(parameters(25.0).relaxation_times_s[0], 8.576e-12, max_relative = 1e-3);
     }
 
     #[test]

@@ -131,9 +131,7 @@ pub const ISM_BANDS: &[IsmBand] = &[
 
 /// The band containing `freq_mhz`, if any (edges included).
 pub fn band_containing(freq_mhz: f64) -> Option<&'static IsmBand> {
-    ISM_BANDS
-        .iter()
-        .find(|band| freq_mhz >= band.low_mhz && freq_mhz <= band.high_mhz)
+    ISM_BANDS.iter().find(|band| freq_mhz >= band.low_mhz && freq_mhz <= band.high_mhz)
 }
 
 /// The band nearest to `freq_mhz` by centre frequency on a log scale (for suggestions).
@@ -167,19 +165,10 @@ mod tests {
     #[test]
     fn centres_lie_inside_their_ranges_and_bands_do_not_overlap() {
         for pair in ISM_BANDS.windows(2) {
-            assert!(
-                pair[0].high_mhz < pair[1].low_mhz,
-                "{} overlaps {}",
-                pair[0].name,
-                pair[1].name
-            );
+            assert!(pair[0].high_mhz < pair[1].low_mhz, "{} overlaps {}", pair[0].name, pair[1].name);
         }
         for band in ISM_BANDS {
-            assert!(
-                band.low_mhz < band.centre_mhz && band.centre_mhz < band.high_mhz,
-                "{}",
-                band.name
-            );
+            assert!(band.low_mhz < band.centre_mhz && band.centre_mhz < band.high_mhz, "{}", band.name);
         }
     }
 

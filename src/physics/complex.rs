@@ -96,18 +96,12 @@ impl Complex {
 
     /// cos z.
     pub fn cos(self) -> Self {
-        Self::new(
-            self.re.cos() * self.im.cosh(),
-            -self.re.sin() * self.im.sinh(),
-        )
+        Self::new(self.re.cos() * self.im.cosh(), -self.re.sin() * self.im.sinh())
     }
 
     /// sin z.
     pub fn sin(self) -> Self {
-        Self::new(
-            self.re.sin() * self.im.cosh(),
-            self.re.cos() * self.im.sinh(),
-        )
+        Self::new(self.re.sin() * self.im.cosh(), self.re.cos() * self.im.sinh())
     }
 
     /// 1/z.
@@ -138,10 +132,7 @@ impl Sub for Complex {
 impl Mul for Complex {
     type Output = Complex;
     fn mul(self, other: Complex) -> Complex {
-        Complex::new(
-            self.re * other.re - self.im * other.im,
-            self.re * other.im + self.im * other.re,
-        )
+        Complex::new(self.re * other.re - self.im * other.im, self.re * other.im + self.im * other.re)
     }
 }
 
@@ -152,17 +143,11 @@ impl Div for Complex {
         if other.re.abs() >= other.im.abs() {
             let ratio = other.im / other.re;
             let denominator = other.re + other.im * ratio;
-            Complex::new(
-                (self.re + self.im * ratio) / denominator,
-                (self.im - self.re * ratio) / denominator,
-            )
+            Complex::new((self.re + self.im * ratio) / denominator, (self.im - self.re * ratio) / denominator)
         } else {
             let ratio = other.re / other.im;
             let denominator = other.re * ratio + other.im;
-            Complex::new(
-                (self.re * ratio + self.im) / denominator,
-                (self.im * ratio - self.re) / denominator,
-            )
+            Complex::new((self.re * ratio + self.im) / denominator, (self.im * ratio - self.re) / denominator)
         }
     }
 }
@@ -196,8 +181,7 @@ mod tests {
     fn close(ours: Complex, theirs: Complex64) {
         let scale = theirs.norm().max(1e-300);
         assert!(
-            (ours.re - theirs.re).abs() <= 1e-12 * scale
-                && (ours.im - theirs.im).abs() <= 1e-12 * scale,
+            (ours.re - theirs.re).abs() <= 1e-12 * scale && (ours.im - theirs.im).abs() <= 1e-12 * scale,
             "ours {ours:?} vs num-complex {theirs:?}"
         );
     }
@@ -211,14 +195,8 @@ mod tests {
             close(ours.ln(), theirs.ln());
             close(ours.powf(0.5), theirs.powf(0.5));
             close(ours.powf(1.0 / 3.0), theirs.powf(1.0 / 3.0));
-            close(
-                ours / Complex::new(3.0, -2.0),
-                theirs / Complex64::new(3.0, -2.0),
-            );
-            close(
-                Complex::new(1.0, 2.0) / ours,
-                Complex64::new(1.0, 2.0) / theirs,
-            );
+            close(ours / Complex::new(3.0, -2.0), theirs / Complex64::new(3.0, -2.0));
+            close(Complex::new(1.0, 2.0) / ours, Complex64::new(1.0, 2.0) / theirs);
         }
         for (re, im) in [(0.3, -0.2), (12.0, -3.5), (-2.0, 0.7)] {
             close(Complex::new(re, im).cos(), Complex64::new(re, im).cos());

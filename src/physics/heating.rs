@@ -20,21 +20,13 @@ pub fn absorbed_power_w(power_density_w_per_m3: f64, volume_m3: f64) -> f64 {
 }
 
 /// RMS field inside the material needed for a target power density, V/m; `None` if eps'' = 0.
-pub fn field_for_power_density_v_per_m(
-    frequency_hz: f64,
-    eps_imag: f64,
-    power_density_w_per_m3: f64,
-) -> Option<f64> {
+pub fn field_for_power_density_v_per_m(frequency_hz: f64, eps_imag: f64, power_density_w_per_m3: f64) -> Option<f64> {
     let per_field_squared = 2.0 * PI * frequency_hz * VACUUM_PERMITTIVITY_F_PER_M * eps_imag;
     (per_field_squared > 0.0).then(|| (power_density_w_per_m3 / per_field_squared).sqrt())
 }
 
 /// Initial heating rate dT/dt = P_v / (rho c_p), K/s.
-pub fn heating_rate_k_per_s(
-    power_density_w_per_m3: f64,
-    density_kg_per_m3: f64,
-    specific_heat_j_per_kg_k: f64,
-) -> f64 {
+pub fn heating_rate_k_per_s(power_density_w_per_m3: f64, density_kg_per_m3: f64, specific_heat_j_per_kg_k: f64) -> f64 {
     power_density_w_per_m3 / (density_kg_per_m3 * specific_heat_j_per_kg_k)
 }
 
@@ -44,11 +36,7 @@ pub fn conductivity_loss_factor(conductivity_s_per_m: f64, frequency_hz: f64) ->
 }
 
 /// Effective loss factor: dipolar part plus the conduction term.
-pub fn effective_loss_factor(
-    eps_imag_dipolar: f64,
-    conductivity_s_per_m: f64,
-    frequency_hz: f64,
-) -> f64 {
+pub fn effective_loss_factor(eps_imag_dipolar: f64, conductivity_s_per_m: f64, frequency_hz: f64) -> f64 {
     eps_imag_dipolar + conductivity_loss_factor(conductivity_s_per_m, frequency_hz)
 }
 
@@ -69,11 +57,7 @@ mod tests {
         // Zero loss gives zero power; doubling the field quadruples it (common practice checks).
         assert_eq!(power_density_w_per_m3(915e6, 0.0, 5e3), 0.0);
         let one = power_density_w_per_m3(915e6, 12.0, 1e3);
-        assert_relative_eq!(
-            power_density_w_per_m3(915e6, 12.0, 2e3),
-            4.0 * one,
-            max_relative = 1e-12
-        );
+        assert_relative_eq!(power_density_w_per_m3(915e6, 12.0, 2e3), 4.0 * one, max_relative = 1e-12);
         let field = field_for_power_density_v_per_m(915e6, 12.0, one).unwrap();
         assert_relative_eq!(field, 1e3, max_relative = 1e-12);
         assert_eq!(field_for_power_density_v_per_m(915e6, 0.0, one), None);
@@ -84,37 +68,16 @@ mod tests {
         // shared/sources.md section 2 [CALC], sigma = 1 S/m: 13.56 MHz 1325.60; 27.12 MHz 662.80;
         // 915 MHz 19.6449; 2450 MHz 7.33680. Cross-check with the Meissner-Wentz code constant
         // 1/(2 pi eps0) = 17.97510 GHz m/S (Meissner & Wentz 2004).
-        for (f, expected) in [
-            (13.56e6, 1325.60),
-            (27.12e6, 662.80),
-            (915e6, 19.6449),
-            (2450e6, 7.33680),
-        ] {
-            assert_relative_eq!(
-                conductivity_loss_factor(1.0, f),
-                expected,
-                max_relative = 1e-5
-            );
-            assert_relative_eq!(
-                conductivity_loss_factor(1.0, f),
-                17.97510 / (f / 1e9),
-                max_relative = 1e-6
-            );
+        for (f, expected) in [(13.56e6, 1325.60), (27.12e6, 662.80), (915e6, 19.6449), (2450e6, 7.33680)] {
+            assert_relative_eq!(conductivity_loss_factor(1.0, f), expected, max_relative = 1e-5);
+            assert_relative_eq!(conductivity_loss_factor(1.0, f), 17.97510 / (f / 1e9), max_relative = 1e-6);
         }
-        assert_relative_eq!(
-            effective_loss_factor(10.0, 1.0, 2450e6),
-            17.3368,
-            max_relative = 1e-5
-        );
+        assert_relative_eq!(effective_loss_factor(10.0, 1.0, 2450e6), 17.3368, max_relative = 1e-5);
     }
 
     #[test]
     fn heating_rate_of_water() {
         // 1 MW/m^3 into water (rho 997 kg/m^3, cp 4182 J/kg K, IAPWS-95 at 25 degC, sources.md 7).
-        assert_relative_eq!(
-            heating_rate_k_per_s(1e6, 997.0, 4182.0),
-            0.23985,
-            max_relative = 1e-4
-        );
+        assert_relative_eq!(heating_rate_k_per_s(1e6, 997.0, 4182.0), 0.23985, max_relative = 1e-4);
     }
 }

@@ -22,10 +22,7 @@ pub struct ComplexPermittivity {
 
 impl ComplexPermittivity {
     /// Free space.
-    pub const VACUUM: ComplexPermittivity = ComplexPermittivity {
-        eps_real: 1.0,
-        eps_imag: 0.0,
-    };
+    pub const VACUUM: ComplexPermittivity = ComplexPermittivity { eps_real: 1.0, eps_imag: 0.0 };
 
     /// A permittivity from its two parts, unchecked (use [`ComplexPermittivity::checked`] on input).
     pub const fn new(eps_real: f64, eps_imag: f64) -> Self {
@@ -46,10 +43,7 @@ impl ComplexPermittivity {
 
     /// From a complex number eps' - j eps''.
     pub fn from_complex(z: Complex) -> Self {
-        Self {
-            eps_real: z.re,
-            eps_imag: -z.im,
-        }
+        Self { eps_real: z.re, eps_imag: -z.im }
     }
 
     /// Loss tangent tan(delta) = eps'' / eps'.

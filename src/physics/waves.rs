@@ -49,11 +49,7 @@ pub fn checked_frequency_hz(freq_mhz: f64) -> Result<f64, InputError> {
 }
 
 /// Checked entry point for user input: frequency in MHz and the two parts of the permittivity.
-pub fn wave_properties_checked(
-    freq_mhz: f64,
-    eps_real: f64,
-    eps_imag: f64,
-) -> Result<WaveProperties, InputError> {
+pub fn wave_properties_checked(freq_mhz: f64, eps_real: f64, eps_imag: f64) -> Result<WaveProperties, InputError> {
     let frequency_hz = checked_frequency_hz(freq_mhz)?;
     let eps = ComplexPermittivity::checked(eps_real, eps_imag)?;
     Ok(wave_properties(frequency_hz, eps))
@@ -96,8 +92,8 @@ pub fn wave_properties(frequency_hz: f64, eps: ComplexPermittivity) -> WavePrope
     let alpha = attenuation_np_per_m(frequency_hz, eps);
     let beta = phase_constant_rad_per_m(frequency_hz, eps);
     let penetration_depth = penetration_depth_m(frequency_hz, eps);
-    let low_loss = (eps.eps_imag > 0.0)
-        .then(|| wavelength_free_space_m * eps.eps_real.sqrt() / (2.0 * PI * eps.eps_imag));
+    let low_loss =
+        (eps.eps_imag > 0.0).then(|| wavelength_free_space_m * eps.eps_real.sqrt() / (2.0 * PI * eps.eps_imag));
     let reflectance = reflectance_normal(eps);
     WaveProperties {
         wavelength_free_space_m,
@@ -148,8 +144,7 @@ mod tests {
         // Table 1 (shared/sources.md 3.3): Dp = 0.130 m at 915 MHz and 0.049 m at 2450 MHz with
         // one constant permittivity. Their ratio equals the frequency ratio for constant eps.
         let eps = ComplexPermittivity::new(2.0, 0.2);
-        let ratio =
-            penetration_depth_m(915e6, eps).unwrap() / penetration_depth_m(2450e6, eps).unwrap();
+        let ratio = penetration_depth_m(915e6, eps).unwrap() / penetration_depth_m(2450e6, eps).unwrap();
         assert_relative_eq!(ratio, 0.130 / 0.049, max_relative = 0.01);
     }
 
@@ -160,22 +155,10 @@ mod tests {
         // low-loss approximation 10.365 cm, Dp = 5.204 cm [CALC there, recomputed here].
         let eps = ComplexPermittivity::new(5.5, 0.88041);
         let props = wave_properties(2.45e9, eps);
-        assert_relative_eq!(
-            1.0 / props.attenuation_np_per_m,
-            0.10408,
-            max_relative = 5e-4
-        );
+        assert_relative_eq!(1.0 / props.attenuation_np_per_m, 0.10408, max_relative = 5e-4);
         // The exercise rounds 1/pi to 0.318, which alone makes its 10.365 cm 0.1 % short of ours.
-        assert_relative_eq!(
-            2.0 * props.penetration_depth_low_loss_m.unwrap(),
-            0.10365,
-            max_relative = 1.5e-3
-        );
-        assert_relative_eq!(
-            props.penetration_depth_m.unwrap(),
-            0.05204,
-            max_relative = 5e-4
-        );
+        assert_relative_eq!(2.0 * props.penetration_depth_low_loss_m.unwrap(), 0.10365, max_relative = 1.5e-3);
+        assert_relative_eq!(props.penetration_depth_m.unwrap(), 0.05204, max_relative = 5e-4);
     }
 
     #[test]
@@ -195,15 +178,8 @@ mod tests {
         // Lossless n = 2: R = ((1 - 2)/(1 + 2))^2 = 1/9 (Fresnel, exact).
         assert_relative_eq!(props.reflectance_normal, 1.0 / 9.0, max_relative = 1e-12);
         // Wavelength shrinks by n.
-        assert_relative_eq!(
-            props.wavelength_in_material_m,
-            props.wavelength_free_space_m / 2.0,
-            max_relative = 1e-12
-        );
-        assert_relative_eq!(
-            wave_properties(1e9, ComplexPermittivity::VACUUM).reflectance_normal,
-            0.0
-        );
+        assert_relative_eq!(props.wavelength_in_material_m, props.wavelength_free_space_m / 2.0, max_relative = 1e-12);
+        assert_relative_eq!(wave_properties(1e9, ComplexPermittivity::VACUUM).reflectance_normal, 0.0);
     }
 
     #[test]
@@ -215,9 +191,6 @@ mod tests {
             props.penetration_depth_low_loss_m.unwrap(),
             max_relative = 1e-8
         );
-        assert_relative_eq!(
-            props.half_power_depth_m.unwrap(),
-            LN_2 * props.penetration_depth_m.unwrap()
-        );
+        assert_relative_eq!(props.half_power_depth_m.unwrap(), LN_2 * props.penetration_depth_m.unwrap());
     }
 }

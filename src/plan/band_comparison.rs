@@ -76,7 +76,9 @@ pub struct BandComparison {
 fn in_band(scenario: &Scenario, centre_mhz: f64) -> Scenario {
     let mut copy = scenario.clone();
     copy.frequency_mhz = centre_mhz;
-    if crate::physics::bands::band_containing(centre_mhz) != crate::physics::bands::band_containing(scenario.frequency_mhz) {
+    if crate::physics::bands::band_containing(centre_mhz)
+        != crate::physics::bands::band_containing(scenario.frequency_mhz)
+    {
         // Another band needs another class, with that class's own efficiencies.
         copy.generator.class = None;
         copy.efficiency.generator = None;
@@ -93,7 +95,13 @@ fn summary(plan: &Plan) -> BandOutcome {
         absorbed_power_kw: plan.absorbed_power_kw,
         forward_power_kw: plan.forward_power_kw,
         mains_power_kw: plan.mains_power_kw,
-        penetration_depth_min_m: [plan.dielectric_inlet.penetration_depth_m, plan.dielectric_outlet.penetration_depth_m].into_iter().flatten().reduce(f64::min),
+        penetration_depth_min_m: [
+            plan.dielectric_inlet.penetration_depth_m,
+            plan.dielectric_outlet.penetration_depth_m,
+        ]
+        .into_iter()
+        .flatten()
+        .reduce(f64::min),
         bed_over_penetration_depth: plan.bed_over_penetration_depth,
         specific_energy_kwh_per_kg: plan.specific_energy_kwh_per_kg,
         energy_cost_per_tonne: plan.utilities.energy_cost_per_tonne,
@@ -111,9 +119,15 @@ pub fn compare(scenario: &Scenario) -> Result<BandComparison, Vec<crate::error::
         .map(|&centre| {
             let outcome = match plan(&in_band(scenario, centre)) {
                 Ok(plan) => summary(&plan),
-                Err(errors) => BandOutcome::NotPlanned { reason: errors.iter().map(ToString::to_string).collect::<Vec<_>>().join("; ") },
+                Err(errors) => BandOutcome::NotPlanned {
+                    reason: errors.iter().map(ToString::to_string).collect::<Vec<_>>().join("; "),
+                },
             };
-            BandRow { frequency_mhz: centre, is_scenario_band: own_band.is_some() && own_band == crate::physics::bands::band_containing(centre), outcome }
+            BandRow {
+                frequency_mhz: centre,
+                is_scenario_band: own_band.is_some() && own_band == crate::physics::bands::band_containing(centre),
+                outcome,
+            }
         })
         .collect();
     Ok(BandComparison {
@@ -139,9 +153,9 @@ pub fn deeper_band_suggestion(scenario: &Scenario, product: &Product, limit: f64
         .rev()
         .filter(|&&freq| freq < scenario.frequency_mhz)
         .find_map(|&freq| {
-            smallest_dp(freq)
-                .filter(|dp| scenario.tunnel.bed_depth_m / dp <= limit)
-                .map(|dp| format!(" At {freq} MHz the smallest penetration depth is {:.0} mm, which suits this bed.", dp * 1000.0))
+            smallest_dp(freq).filter(|dp| scenario.tunnel.bed_depth_m / dp <= limit).map(|dp| {
+                format!(" At {freq} MHz the smallest penetration depth is {:.0} mm, which suits this bed.", dp * 1000.0)
+            })
         })
         .unwrap_or_default()
 }

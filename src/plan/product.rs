@@ -19,10 +19,19 @@ impl Product {
     /// Resolve the scenario's product: exactly one of `library` or `custom`.
     pub fn from_scenario(scenario: &Scenario) -> Result<Product, Vec<InputError>> {
         let material = match (&scenario.product.library, &scenario.product.custom) {
-            (Some(name), None) => materials::library().get(name).cloned().ok_or_else(|| vec![materials::library::unknown_material(name).within("product")])?,
+            (Some(name), None) => materials::library()
+                .get(name)
+                .cloned()
+                .ok_or_else(|| vec![materials::library::unknown_material(name).within("product")])?,
             (None, Some(custom)) => materials::custom::custom_material(custom)
                 .map_err(|errors| errors.into_iter().map(|e| e.within("product.custom")).collect::<Vec<_>>())?,
-            (Some(_), Some(_)) => return Err(vec![InputError::new("product", "both library and custom", "exactly one of library or custom")]),
+            (Some(_), Some(_)) => {
+                return Err(vec![InputError::new(
+                    "product",
+                    "both library and custom",
+                    "exactly one of library or custom",
+                )])
+            }
             (None, None) => return Err(vec![InputError::new("product", "empty", "exactly one of library or custom")]),
         };
         Ok(Product { material, salt_pct: scenario.salt_pct })
@@ -39,7 +48,12 @@ impl Product {
     }
 
     /// Permittivity at a state and frequency.
-    pub fn permittivity(&self, frequency_hz: f64, temp_c: f64, moisture_wb: f64) -> Result<PermittivityLookup, InputError> {
+    pub fn permittivity(
+        &self,
+        frequency_hz: f64,
+        temp_c: f64,
+        moisture_wb: f64,
+    ) -> Result<PermittivityLookup, InputError> {
         materials::permittivity(&self.material, frequency_hz, &self.state(temp_c, moisture_wb))
     }
 }

@@ -138,7 +138,12 @@ fn default_applicator() -> f64 {
 
 impl Default for EfficiencyInput {
     fn default() -> Self {
-        Self { power_supply: None, generator: None, transmission: default_transmission(), applicator: default_applicator() }
+        Self {
+            power_supply: None,
+            generator: None,
+            transmission: default_transmission(),
+            applicator: default_applicator(),
+        }
     }
 }
 
@@ -171,6 +176,53 @@ pub struct TunnelSpec {
     /// Number of zones along the tunnel for the profiles.
     #[serde(default = "default_zones")]
     pub zones: u32,
+    /// What carries the product: tray, belt, air gap and backing, for the depth profile.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub load_stack: Option<LoadStack>,
+}
+
+/// A flat layer under the product.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Slab {
+    /// Thickness, m.
+    pub thickness_m: f64,
+    /// eps'.
+    pub eps_real: f64,
+    /// eps''.
+    pub eps_imag: f64,
+}
+
+/// What lies below the stack.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum BackingSpec {
+    /// Open: the wave leaves into air (or, fed from both sides, comes in from below).
+    Air,
+    /// A metal plate or tunnel floor: reflects everything; top feeding only.
+    Metal,
+}
+
+/// The carrier under the product, top down: tray, belt, air gap, backing.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct LoadStack {
+    /// A tray or carton base under the product.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub tray: Option<Slab>,
+    /// The conveyor belt.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub belt: Option<Slab>,
+    /// Air between the belt and the backing, m.
+    #[serde(default)]
+    pub air_gap_m: f64,
+    /// What lies below.
+    #[serde(default = "default_backing")]
+    pub backing: BackingSpec,
+}
+
+fn default_backing() -> BackingSpec {
+    BackingSpec::Air
 }
 
 fn default_feed() -> FeedSides {

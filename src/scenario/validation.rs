@@ -27,11 +27,17 @@ pub fn parse_scenario(text: &str) -> Result<Scenario, Vec<InputError>> {
     match object.get("schema").and_then(serde_json::Value::as_u64) {
         Some(version) if version == u64::from(SCHEMA_VERSION) => {}
         Some(version) => {
-            return Err(vec![InputError::new("schema", version, format!("{SCHEMA_VERSION} (this build reads schema {SCHEMA_VERSION} scenarios)"))])
+            return Err(vec![InputError::new(
+                "schema",
+                version,
+                format!("{SCHEMA_VERSION} (this build reads schema {SCHEMA_VERSION} scenarios)"),
+            )])
         }
         None => return Err(vec![InputError::new("schema", "missing", format!("{SCHEMA_VERSION}"))]),
     }
-    serde_json::from_value(value).map_err(|error| vec![InputError::new("scenario", error.to_string(), "the fields documented in demo-loads/README.md")])
+    serde_json::from_value(value).map_err(|error| {
+        vec![InputError::new("scenario", error.to_string(), "the fields documented in demo-loads/README.md")]
+    })
 }
 
 fn push(problems: &mut Vec<InputError>, result: Result<f64, InputError>) {
@@ -63,7 +69,9 @@ pub fn validate(scenario: &Scenario) -> Vec<InputError> {
     push(p, require_in("frequency_mhz", scenario.frequency_mhz, 1.0, FREQUENCY_MAX_HZ / 1e6));
 
     let efficiency = &scenario.efficiency;
-    for (field, value) in [("efficiency.power_supply", efficiency.power_supply), ("efficiency.generator", efficiency.generator)] {
+    for (field, value) in
+        [("efficiency.power_supply", efficiency.power_supply), ("efficiency.generator", efficiency.generator)]
+    {
         if let Some(value) = value {
             push(p, require_in(field, value, 0.05, 1.0));
         }
@@ -81,6 +89,20 @@ pub fn validate(scenario: &Scenario) -> Vec<InputError> {
     p.extend(geometry.validate());
     if tunnel.zones == 0 || tunnel.zones > ZONES_MAX {
         p.push(InputError::new("tunnel.zones", tunnel.zones, format!("1 to {ZONES_MAX}")));
+    }
+    if let Some(stack) = &tunnel.load_stack {
+        for (name, slab) in [("tray", &stack.tray), ("belt", &stack.belt)] {
+            if let Some(slab) = slab {
+                let prefix = format!("tunnel.load_stack.{name}");
+                push(p, require_positive(&format!("{prefix}.thickness_m"), slab.thickness_m, 0.5));
+                push(p, require_in(&format!("{prefix}.eps_real"), slab.eps_real, 1.0, crate::physics::permittivity::EPS_REAL_MAX));
+                push(p, require_in(&format!("{prefix}.eps_imag"), slab.eps_imag, 0.0, crate::physics::permittivity::EPS_IMAG_MAX));
+            }
+        }
+        push(p, require_in("tunnel.load_stack.air_gap_m", stack.air_gap_m, 0.0, 2.0));
+        if stack.backing == super::document::BackingSpec::Metal && tunnel.feed == super::document::FeedSides::Both {
+            p.push(InputError::new("tunnel.load_stack.backing", "metal", "air when the bed is fed from both sides (a metal floor blocks the lower feed)"));
+        }
     }
     p.extend(scenario.losses.validate());
     p.extend(scenario.site.validate());
@@ -113,7 +135,11 @@ fn check_process_rules(scenario: &Scenario, problems: &mut Vec<InputError>) {
     match scenario.process {
         ProcessKind::Drying => match (moisture_in, moisture_out) {
             (Some(w_in), Some(w_out)) if w_out >= w_in && w_in.is_finite() && w_out.is_finite() => {
-                problems.push(InputError::new("outlet.moisture_wb", w_out, format!("below the inlet moisture {w_in} for drying")));
+                problems.push(InputError::new(
+                    "outlet.moisture_wb",
+                    w_out,
+                    format!("below the inlet moisture {w_in} for drying"),
+                ));
             }
             (None, _) | (_, None) => problems.push(InputError::new(
                 if moisture_in.is_none() { "inlet.moisture_wb" } else { "outlet.moisture_wb" },
@@ -122,13 +148,25 @@ fn check_process_rules(scenario: &Scenario, problems: &mut Vec<InputError>) {
             )),
             _ => {}
         },
-        ProcessKind::Heating | ProcessKind::Pasteurising | ProcessKind::Curing | ProcessKind::Tempering | ProcessKind::Thawing => {
+        ProcessKind::Heating
+        | ProcessKind::Pasteurising
+        | ProcessKind::Curing
+        | ProcessKind::Tempering
+        | ProcessKind::Thawing => {
             if t_out <= t_in && t_in.is_finite() && t_out.is_finite() {
-                problems.push(InputError::new("outlet.temp_c", t_out, format!("above the inlet temperature {t_in} for {}", scenario.process.as_str())));
+                problems.push(InputError::new(
+                    "outlet.temp_c",
+                    t_out,
+                    format!("above the inlet temperature {t_in} for {}", scenario.process.as_str()),
+                ));
             }
             if let (Some(w_in), Some(w_out)) = (moisture_in, moisture_out) {
                 if (w_in - w_out).abs() > 1e-9 {
-                    problems.push(InputError::new("outlet.moisture_wb", w_out, format!("equal to the inlet moisture {w_in} unless the process is drying")));
+                    problems.push(InputError::new(
+                        "outlet.moisture_wb",
+                        w_out,
+                        format!("equal to the inlet moisture {w_in} unless the process is drying"),
+                    ));
                 }
             }
         }
@@ -161,7 +199,8 @@ mod tests {
         assert_eq!(parse_scenario("[1]").unwrap_err()[0].field, "scenario");
         assert_eq!(parse_scenario(r#"{"process": "heating"}"#).unwrap_err()[0].field, "schema");
         assert_eq!(parse_scenario(&MINIMAL.replace("\"schema\": 1", "\"schema\": 7")).unwrap_err()[0].field, "schema");
-        let unknown = parse_scenario(&MINIMAL.replace("\"frequency_mhz\"", "\"colour\": 1, \"frequency_mhz\"")).unwrap_err();
+        let unknown =
+            parse_scenario(&MINIMAL.replace("\"frequency_mhz\"", "\"colour\": 1, \"frequency_mhz\"")).unwrap_err();
         assert!(unknown[0].value.contains("colour"), "{unknown:?}");
     }
 
@@ -180,7 +219,10 @@ mod tests {
 
     #[test]
     fn drying_needs_falling_moisture() {
-        let text = MINIMAL.replace("\"heating\"", "\"drying\"").replace("{\"temp_c\": 10}", "{\"temp_c\": 10, \"moisture_wb\": 0.2}").replace("{\"temp_c\": 70}", "{\"temp_c\": 70, \"moisture_wb\": 0.3}");
+        let text = MINIMAL
+            .replace("\"heating\"", "\"drying\"")
+            .replace("{\"temp_c\": 10}", "{\"temp_c\": 10, \"moisture_wb\": 0.2}")
+            .replace("{\"temp_c\": 70}", "{\"temp_c\": 70, \"moisture_wb\": 0.3}");
         let problems = validate(&parse_scenario(&text).unwrap());
         assert_eq!(problems[0].field, "outlet.moisture_wb");
     }

@@ -106,12 +106,7 @@ mod tests {
 
     #[test]
     fn losses_add_up_to_the_mains_draw() {
-        let chain = EfficiencyChain {
-            power_supply: 0.95,
-            generator: 0.88,
-            transmission: 0.97,
-            applicator: 0.9,
-        };
+        let chain = EfficiencyChain { power_supply: 0.95, generator: 0.88, transmission: 0.97, applicator: 0.9 };
         let flow = power_flow(100.0, &chain);
         let l = flow.losses;
         let total = flow.absorbed_kw
@@ -126,35 +121,14 @@ mod tests {
     #[test]
     fn anode_dissipation_of_a_75_kw_tube() {
         // shared/sources.md 6.2 [CALC]: 75 kW output at 88 % -> 10.23 kW dissipated.
-        let chain = EfficiencyChain {
-            power_supply: 1.0,
-            generator: 0.88,
-            transmission: 1.0,
-            applicator: 1.0,
-        };
-        assert_relative_eq!(
-            power_flow(75.0, &chain).losses.generator_to_tube_cooling_kw,
-            10.227,
-            max_relative = 1e-3
-        );
+        let chain = EfficiencyChain { power_supply: 1.0, generator: 0.88, transmission: 1.0, applicator: 1.0 };
+        assert_relative_eq!(power_flow(75.0, &chain).losses.generator_to_tube_cooling_kw, 10.227, max_relative = 1e-3);
     }
 
     #[test]
     fn every_stage_is_checked() {
-        let chain = EfficiencyChain {
-            power_supply: 1.2,
-            generator: 0.0,
-            transmission: f64::NAN,
-            applicator: 0.9,
-        };
+        let chain = EfficiencyChain { power_supply: 1.2, generator: 0.0, transmission: f64::NAN, applicator: 0.9 };
         let fields: Vec<String> = chain.validate().into_iter().map(|e| e.field).collect();
-        assert_eq!(
-            fields,
-            [
-                "efficiency.power_supply",
-                "efficiency.generator",
-                "efficiency.transmission"
-            ]
-        );
+        assert_eq!(fields, ["efficiency.power_supply", "efficiency.generator", "efficiency.transmission"]);
     }
 }

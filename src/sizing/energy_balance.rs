@@ -38,11 +38,7 @@ pub struct LossAllowances {
 impl Default for LossAllowances {
     /// Starting allowances: 5 % surface, 2 % belt, 10 % vapour (common practice).
     fn default() -> Self {
-        Self {
-            surface_pct: 5.0,
-            belt_pct: 2.0,
-            vapour_pct: 10.0,
-        }
+        Self { surface_pct: 5.0, belt_pct: 2.0, vapour_pct: 10.0 }
     }
 }
 
@@ -127,11 +123,7 @@ pub fn balance(product: &dyn ProductThermal, input: &BalanceInput) -> Result<Ene
     let (x_in, x_out) = (input.inlet_moisture_wb, input.outlet_moisture_wb);
     let drying = x_out < x_in;
     let dry_solids_kg_per_h = m_in * (1.0 - x_in);
-    let product_out_kg_per_h = if drying {
-        dry_solids_kg_per_h / (1.0 - x_out)
-    } else {
-        m_in
-    };
+    let product_out_kg_per_h = if drying { dry_solids_kg_per_h / (1.0 - x_out) } else { m_in };
     let water_removed_kg_per_h = m_in - product_out_kg_per_h;
 
     let to_kw = |kg_per_h: f64, j_per_kg: f64| kg_per_h * j_per_kg / SECONDS_PER_HOUR / 1000.0;
@@ -139,29 +131,12 @@ pub fn balance(product: &dyn ProductThermal, input: &BalanceInput) -> Result<Ene
 
     let (stage_one_kw, evaporation_kw, stage_three_kw) = if drying {
         let t_e = input.evaporation_temp_c;
-        let one = to_kw(
-            m_in,
-            enthalpy(t_e, x_in)? - enthalpy(input.inlet_temp_c, x_in)?,
-        );
-        let evaporation = to_kw(
-            water_removed_kg_per_h,
-            input.latent_heat_vaporization_j_per_kg,
-        );
-        let three = to_kw(
-            product_out_kg_per_h,
-            enthalpy(input.outlet_temp_c, x_out)? - enthalpy(t_e, x_out)?,
-        )
-        .max(0.0);
+        let one = to_kw(m_in, enthalpy(t_e, x_in)? - enthalpy(input.inlet_temp_c, x_in)?);
+        let evaporation = to_kw(water_removed_kg_per_h, input.latent_heat_vaporization_j_per_kg);
+        let three = to_kw(product_out_kg_per_h, enthalpy(input.outlet_temp_c, x_out)? - enthalpy(t_e, x_out)?).max(0.0);
         (one, evaporation, three)
     } else {
-        (
-            to_kw(
-                m_in,
-                enthalpy(input.outlet_temp_c, x_in)? - enthalpy(input.inlet_temp_c, x_in)?,
-            ),
-            0.0,
-            0.0,
-        )
+        (to_kw(m_in, enthalpy(input.outlet_temp_c, x_in)? - enthalpy(input.inlet_temp_c, x_in)?), 0.0, 0.0)
     };
 
     let ice_in = product.ice_mass_fraction(input.inlet_temp_c, x_in)? * m_in;
@@ -214,11 +189,7 @@ mod tests {
     }
 
     fn no_losses() -> LossAllowances {
-        LossAllowances {
-            surface_pct: 0.0,
-            belt_pct: 0.0,
-            vapour_pct: 0.0,
-        }
+        LossAllowances { surface_pct: 0.0, belt_pct: 0.0, vapour_pct: 0.0 }
     }
 
     #[test]
@@ -260,9 +231,8 @@ mod tests {
         // Heating the whole 100 kg/h (here modelled as water) plus evaporating 90 kg/h.
         let expected_kw = (100.0 * (419_100.0 - 83_910.0) + 90.0 * 2_256_470.0) / 3.6e6;
         assert_relative_eq!(b.absorbed_kw, expected_kw, max_relative = 1e-9);
-        let per_kg_water = (100.0 / 90.0 * (419.10 - 83.91) + 2256.47
-            - (100.0 / 90.0 - 1.0) * (419.10 - 83.91))
-            / 3600.0;
+        let per_kg_water =
+            (100.0 / 90.0 * (419.10 - 83.91) + 2256.47 - (100.0 / 90.0 - 1.0) * (419.10 - 83.91)) / 3600.0;
         assert_relative_eq!(per_kg_water, 0.71990, max_relative = 2e-4);
     }
 
@@ -276,11 +246,7 @@ mod tests {
             outlet_moisture_wb: 0.5,
             evaporation_temp_c: 100.0,
             latent_heat_vaporization_j_per_kg: 2_256_470.0,
-            losses: LossAllowances {
-                surface_pct: 10.0,
-                belt_pct: 5.0,
-                vapour_pct: 50.0,
-            },
+            losses: LossAllowances { surface_pct: 10.0, belt_pct: 5.0, vapour_pct: 50.0 },
         };
         let b = balance(&WaterOnly, &input).unwrap();
         // 3600 kg/h x 335.19 kJ/kg = 335.19 kW; +10 % +5 %; no evaporation so no vapour loss.

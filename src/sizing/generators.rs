@@ -64,9 +64,7 @@ const CATALOGUE_JSON: &str = include_str!("generators.json");
 pub fn builtin_catalogue() -> &'static [GeneratorClass] {
     static CATALOGUE: OnceLock<Vec<GeneratorClass>> = OnceLock::new();
     CATALOGUE.get_or_init(|| {
-        serde_json::from_str::<CatalogueFile>(CATALOGUE_JSON)
-            .map(|file| file.classes)
-            .unwrap_or_default()
+        serde_json::from_str::<CatalogueFile>(CATALOGUE_JSON).map(|file| file.classes).unwrap_or_default()
     })
 }
 
@@ -80,29 +78,10 @@ impl GeneratorClass {
             }
         };
         check(require_positive("freq_mhz", self.freq_mhz, 300_000.0));
-        check(require_positive(
-            "rated_output_kw",
-            self.rated_output_kw,
-            10_000.0,
-        ));
-        check(require_in(
-            "generator_efficiency",
-            self.generator_efficiency,
-            0.05,
-            1.0,
-        ));
-        check(require_in(
-            "power_supply_efficiency",
-            self.power_supply_efficiency,
-            0.05,
-            1.0,
-        ));
-        check(require_in(
-            "max_operating_fraction",
-            self.max_operating_fraction,
-            0.1,
-            1.0,
-        ));
+        check(require_positive("rated_output_kw", self.rated_output_kw, 10_000.0));
+        check(require_in("generator_efficiency", self.generator_efficiency, 0.05, 1.0));
+        check(require_in("power_supply_efficiency", self.power_supply_efficiency, 0.05, 1.0));
+        check(require_in("max_operating_fraction", self.max_operating_fraction, 0.1, 1.0));
         check(require_in(
             "min_operating_fraction",
             self.min_operating_fraction,
@@ -111,11 +90,7 @@ impl GeneratorClass {
         ));
         check(require_in("anode_kv", self.anode_kv, 0.0, 100.0));
         if self.id.trim().is_empty() || self.id.len() > 64 {
-            problems.push(InputError::new(
-                "id",
-                format!("{:?}", self.id),
-                "1 to 64 characters",
-            ));
+            problems.push(InputError::new("id", format!("{:?}", self.id), "1 to 64 characters"));
         }
         problems
     }
@@ -220,14 +195,9 @@ pub fn size_with(
     redundancy: Redundancy,
     picked_automatically: bool,
 ) -> Result<GeneratorSelection, SelectionError> {
-    let raw_count = (output_needed_kw / class.usable_output_kw())
-        .ceil()
-        .max(1.0);
+    let raw_count = (output_needed_kw / class.usable_output_kw()).ceil().max(1.0);
     if !raw_count.is_finite() || raw_count > MAX_UNITS {
-        return Err(SelectionError::TooMany {
-            class_id: class.id.clone(),
-            count: raw_count,
-        });
+        return Err(SelectionError::TooMany { class_id: class.id.clone(), count: raw_count });
     }
     let running_count = raw_count as u32;
     let output_per_unit_kw = output_needed_kw / f64::from(running_count);
@@ -270,15 +240,9 @@ pub fn select(
         .filter_map(|class| size_with(class, output_needed_kw, redundancy, true).ok())
         .collect();
     // A unit run below its stable minimum is a poor pick; use such classes only if nothing else fits.
-    let stable: Vec<&GeneratorSelection> = candidates
-        .iter()
-        .filter(|c| c.operating_fraction >= c.class.min_operating_fraction)
-        .collect();
-    let pool: Vec<&GeneratorSelection> = if stable.is_empty() {
-        candidates.iter().collect()
-    } else {
-        stable
-    };
+    let stable: Vec<&GeneratorSelection> =
+        candidates.iter().filter(|c| c.operating_fraction >= c.class.min_operating_fraction).collect();
+    let pool: Vec<&GeneratorSelection> = if stable.is_empty() { candidates.iter().collect() } else { stable };
     pool.into_iter()
         .min_by(|a, b| {
             (a.running_count, a.class.rated_output_kw)
@@ -297,23 +261,10 @@ mod tests {
     #[test]
     fn builtin_catalogue_parses_and_validates() {
         let catalogue = builtin_catalogue();
-        assert!(
-            catalogue.len() >= 15,
-            "catalogue failed to parse or is short: {}",
-            catalogue.len()
-        );
+        assert!(catalogue.len() >= 15, "catalogue failed to parse or is short: {}", catalogue.len());
         for class in catalogue {
-            assert!(
-                class.validate().is_empty(),
-                "{}: {:?}",
-                class.id,
-                class.validate()
-            );
-            assert!(
-                band_containing(class.freq_mhz).is_some(),
-                "{} is outside every band",
-                class.id
-            );
+            assert!(class.validate().is_empty(), "{}: {:?}", class.id, class.validate());
+            assert!(band_containing(class.freq_mhz).is_some(), "{} is outside every band", class.id);
         }
         let mut ids: Vec<&str> = catalogue.iter().map(|c| c.id.as_str()).collect();
         ids.sort_unstable();
@@ -324,22 +275,14 @@ mod tests {
     #[test]
     fn count_is_the_ceiling_over_the_derated_rating() {
         // sources.md 10.2 step 4: N = ceil(P_MW / (P_tube k_derate)). 200 kW over 75 kW x 0.9 = 2.96 -> 3.
-        let class = builtin_catalogue()
-            .iter()
-            .find(|c| c.id == "mw-915-75")
-            .unwrap();
+        let class = builtin_catalogue().iter().find(|c| c.id == "mw-915-75").unwrap();
         let plan = size_with(class, 200.0, Redundancy::N, false).unwrap();
         assert_eq!(plan.running_count, 3);
         assert_relative_eq!(plan.operating_fraction, 200.0 / 3.0 / 75.0);
         let spare = size_with(class, 200.0, Redundancy::NPlus1, false).unwrap();
         assert_eq!(spare.total_count(), 4);
         // Exactly at the derated rating: 2 units of 67.5 kW make 135 kW, no third unit.
-        assert_eq!(
-            size_with(class, 135.0, Redundancy::N, false)
-                .unwrap()
-                .running_count,
-            2
-        );
+        assert_eq!(size_with(class, 135.0, Redundancy::N, false).unwrap().running_count, 2);
     }
 
     #[test]
@@ -349,10 +292,7 @@ mod tests {
         let pick = select(catalogue, None, 915.0, 40.0, Redundancy::N).unwrap();
         assert_eq!(pick.class.id, "mw-915-50");
         let pick = select(catalogue, None, 2450.0, 20.0, Redundancy::N).unwrap();
-        assert_eq!(
-            (pick.class.id.as_str(), pick.running_count),
-            ("mw-2450-30", 1)
-        );
+        assert_eq!((pick.class.id.as_str(), pick.running_count), ("mw-2450-30", 1));
     }
 
     #[test]
@@ -366,10 +306,7 @@ mod tests {
             select(catalogue, Some("nope"), 915.0, 10.0, Redundancy::N),
             Err(SelectionError::UnknownClass(_))
         ));
-        assert!(matches!(
-            select(catalogue, None, 5800.0, 10.0, Redundancy::N),
-            Err(SelectionError::NoClassForBand(_))
-        ));
+        assert!(matches!(select(catalogue, None, 5800.0, 10.0, Redundancy::N), Err(SelectionError::NoClassForBand(_))));
         assert!(matches!(
             select(catalogue, Some("mw-2450-1"), 2450.0, 5000.0, Redundancy::N),
             Err(SelectionError::TooMany { .. })

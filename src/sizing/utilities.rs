@@ -50,32 +50,16 @@ impl SiteInput {
     pub fn validate(&self) -> Vec<InputError> {
         let mut problems: Vec<InputError> = [
             require_in("site.power_factor", self.power_factor, 0.5, 1.0).err(),
-            require_in(
-                "site.cooling_water_rise_k",
-                self.cooling_water_rise_k,
-                1.0,
-                60.0,
-            )
-            .err(),
+            require_in("site.cooling_water_rise_k", self.cooling_water_rise_k, 1.0, 60.0).err(),
             require_in("site.tariff_per_kwh", self.tariff_per_kwh, 0.0, 100.0).err(),
-            require_in(
-                "site.operating_hours_per_year",
-                self.operating_hours_per_year,
-                0.0,
-                8784.0,
-            )
-            .err(),
+            require_in("site.operating_hours_per_year", self.operating_hours_per_year, 0.0, 8784.0).err(),
             require_in("site.auxiliary_kw", self.auxiliary_kw, 0.0, 100_000.0).err(),
         ]
         .into_iter()
         .flatten()
         .collect();
         if self.currency.chars().count() > 12 {
-            problems.push(InputError::new(
-                "site.currency",
-                format!("{:?}", self.currency),
-                "at most 12 characters",
-            ));
+            problems.push(InputError::new("site.currency", format!("{:?}", self.currency), "at most 12 characters"));
         }
         problems
     }
@@ -132,14 +116,10 @@ pub fn utilities(
         total_mains_kw,
         mains_kva: total_mains_kw / site.power_factor,
         cooling_water_heat_kw,
-        cooling_water_l_per_min: cooling_water_l_per_min(
-            cooling_water_heat_kw,
-            site.cooling_water_rise_k,
-        ),
+        cooling_water_l_per_min: cooling_water_l_per_min(cooling_water_heat_kw, site.cooling_water_rise_k),
         mains_energy_kwh_per_kg: total_mains_kw / throughput_kg_per_h,
         absorbed_energy_kwh_per_kg: absorbed_kw / throughput_kg_per_h,
-        mains_energy_kwh_per_kg_water: (water_removed_kg_per_h > 0.0)
-            .then(|| total_mains_kw / water_removed_kg_per_h),
+        mains_energy_kwh_per_kg_water: (water_removed_kg_per_h > 0.0).then(|| total_mains_kw / water_removed_kg_per_h),
         energy_cost_per_hour,
         energy_cost_per_tonne: energy_cost_per_hour / (throughput_kg_per_h / 1000.0),
         annual_energy_mwh: total_mains_kw * site.operating_hours_per_year / 1000.0,
@@ -157,21 +137,9 @@ mod tests {
     fn cooling_water_for_tube_dissipation() {
         // shared/sources.md 6.2 [CALC], dT = 10 K: 10.23 kW -> 14.7 L/min; 13.64 kW -> 19.6 L/min;
         // 2.57 kW -> 3.7 L/min.
-        assert_relative_eq!(
-            cooling_water_l_per_min(10.23, 10.0),
-            14.7,
-            max_relative = 3e-3
-        );
-        assert_relative_eq!(
-            cooling_water_l_per_min(13.64, 10.0),
-            19.6,
-            max_relative = 3e-3
-        );
-        assert_relative_eq!(
-            cooling_water_l_per_min(2.57, 10.0),
-            3.7,
-            max_relative = 5e-3
-        );
+        assert_relative_eq!(cooling_water_l_per_min(10.23, 10.0), 14.7, max_relative = 3e-3);
+        assert_relative_eq!(cooling_water_l_per_min(13.64, 10.0), 19.6, max_relative = 3e-3);
+        assert_relative_eq!(cooling_water_l_per_min(2.57, 10.0), 3.7, max_relative = 5e-3);
     }
 
     #[test]

@@ -2,5 +2,8 @@
 
 mod cli_dielectric;
 mod cli_layers;
+mod cli_material;
+mod demo_loads;
 mod physics_properties;
+mod plan_energy_balance;
 mod support;

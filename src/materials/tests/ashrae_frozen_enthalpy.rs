@@ -70,11 +70,7 @@ fn frozen_fraction_at_and_below_the_freezing_point() {
     assert_eq!(beef.frozen_fraction(-1.7).unwrap(), 0.0);
     assert_eq!(beef.frozen_fraction(10.0).unwrap(), 0.0);
     // (x_w - x_b)(1 - t_f/t)/x_w = 0.652 (1 - 1.7/10)/0.74 = 0.73130 at -10 degC.
-    assert_relative_eq!(
-        beef.frozen_fraction(-10.0).unwrap(),
-        0.652 * 0.83 / 0.74,
-        max_relative = 1e-9
-    );
+    assert_relative_eq!(beef.frozen_fraction(-10.0).unwrap(), 0.652 * 0.83 / 0.74, max_relative = 1e-9);
     assert!(beef.frozen_fraction(-3.0).unwrap() < beef.frozen_fraction(-20.0).unwrap());
     let ice = library().get("ice").unwrap();
     assert_eq!(ice.frozen_fraction(-5.0).unwrap(), 1.0);

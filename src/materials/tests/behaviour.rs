@@ -43,7 +43,8 @@ fn invalid_requests_are_errors_naming_the_field() {
     let bad_moisture = MaterialState { moisture_wb: Some(1.0), ..MaterialState::at(20.0) };
     assert_eq!(permittivity(water, 915e6, &bad_moisture).unwrap_err().field, "moisture_wb");
     let ptfe = library().get("ptfe").unwrap();
-    let error = crate::materials::permittivity_with_conductivity(ptfe, 915e6, &MaterialState::at(20.0), Some(1.0)).unwrap_err();
+    let error =
+        crate::materials::permittivity_with_conductivity(ptfe, 915e6, &MaterialState::at(20.0), Some(1.0)).unwrap_err();
     assert_eq!(error.field, "conductivity_s_per_m");
 }
 
@@ -51,7 +52,14 @@ fn invalid_requests_are_errors_naming_the_field() {
 fn moist_material_limits_no_water_and_wetter() {
     // No water: the moist model is the mix of the solid and air only (Looyenga).
     let paper = library().get("paper").unwrap();
-    let DielectricModel::Moist { solid_eps_real, solid_eps_imag, solid_density_kg_per_m3, dry_bulk_density_kg_per_m3, .. } = &paper.dielectric else {
+    let DielectricModel::Moist {
+        solid_eps_real,
+        solid_eps_imag,
+        solid_density_kg_per_m3,
+        dry_bulk_density_kg_per_m3,
+        ..
+    } = &paper.dielectric
+    else {
         panic!("paper is a moist-model material");
     };
     let v_solid = dry_bulk_density_kg_per_m3 / solid_density_kg_per_m3;
@@ -135,7 +143,12 @@ fn drying_changes_bulk_density_and_specific_heat() {
     let wet = paper.bulk_density_kg_per_m3(Some(0.5)).unwrap();
     let dry = paper.bulk_density_kg_per_m3(Some(0.0)).unwrap();
     assert!(wet > dry);
-    assert!(paper.specific_heat_j_per_kg_k(20.0, Some(0.5)).unwrap() > paper.specific_heat_j_per_kg_k(20.0, Some(0.05)).unwrap());
+    assert!(
+        paper.specific_heat_j_per_kg_k(20.0, Some(0.5)).unwrap()
+            > paper.specific_heat_j_per_kg_k(20.0, Some(0.05)).unwrap()
+    );
     let bread = library().get("bread").unwrap();
-    assert!(bread.specific_heat_j_per_kg_k(20.0, Some(0.1)).unwrap() < bread.specific_heat_j_per_kg_k(20.0, None).unwrap());
+    assert!(
+        bread.specific_heat_j_per_kg_k(20.0, Some(0.1)).unwrap() < bread.specific_heat_j_per_kg_k(20.0, None).unwrap()
+    );
 }

@@ -79,8 +79,7 @@ fn latent_heat_matches_iapws_95() {
 #[test]
 fn heating_and_boiling_off_water_from_20_c() {
     // shared/sources.md 7: h_liq(20 degC) -> h_vap(100 degC) = 2591.65 kJ/kg (IAPWS-95 [CALC]).
-    let needed = saturated_liquid_enthalpy_j_per_kg(100.0).unwrap()
-        - saturated_liquid_enthalpy_j_per_kg(20.0).unwrap()
+    let needed = saturated_liquid_enthalpy_j_per_kg(100.0).unwrap() - saturated_liquid_enthalpy_j_per_kg(20.0).unwrap()
         + latent_heat_vaporization_j_per_kg(100.0).unwrap();
     assert_relative_eq!(needed / 1e3, 2591.65, max_relative = 5e-4);
 }
@@ -101,11 +100,9 @@ fn liquid_specific_heat_matches_iapws_95() {
     // cp of liquid water at 0.101325 MPa, shared/sources.md 7 (IAPWS-95 [CALC]); our value is the
     // slope of h' on the saturation line, within 0.15 % of the isobaric cp below 95 degC.
     let water = crate::materials::library().get("water").unwrap();
-    for (t, cp) in [(10.0, 4195.4), (20.0, 4184.8), (25.0, 4181.9), (40.0, 4178.6), (60.0, 4182.8), (80.0, 4195.5), (95.0, 4210.6)] {
-        assert_relative_eq!(
-            water.specific_heat_j_per_kg_k(t, None).unwrap(),
-            cp,
-            max_relative = 1.5e-3
-        );
+    for (t, cp) in
+        [(10.0, 4195.4), (20.0, 4184.8), (25.0, 4181.9), (40.0, 4178.6), (60.0, 4182.8), (80.0, 4195.5), (95.0, 4210.6)]
+    {
+        assert_relative_eq!(water.specific_heat_j_per_kg_k(t, None).unwrap(), cp, max_relative = 1.5e-3);
     }
 }

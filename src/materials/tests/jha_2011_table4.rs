@@ -84,10 +84,7 @@ fn all_model_reference_points_within_wide_bounds() {
     // cross-study points deserve no tighter check; the per-source modules above are tighter.
     for material in library() {
         for point in &material.reference_points {
-            let state = MaterialState {
-                moisture_wb: point.moisture_wb,
-                ..MaterialState::at(point.temp_c)
-            };
+            let state = MaterialState { moisture_wb: point.moisture_wb, ..MaterialState::at(point.temp_c) };
             let lookup = permittivity(material, point.freq_mhz * 1e6, &state).unwrap();
             let ratio_real = lookup.eps.eps_real / point.eps_real;
             assert!((1.0 / 1.5..=1.5).contains(&ratio_real), "{} {point:?}: {lookup:?}", material.name);

@@ -43,10 +43,38 @@ const ROWS: [Row; 21] = [
     row("alumina", 2450.0, 25.0, 9.4, 0.003),
     row("rubber-natural", 2450.0, 25.0, 2.3, 0.006),
     // Torgovnikov (1993), from memory; wood moisture converted from dry basis.
-    Row { name: "wood-softwood", freq_mhz: 2450.0, temp_c: 20.0, moisture_wb: Some(0.0), eps_real: 1.9, eps_imag: 0.075 },
-    Row { name: "wood-softwood", freq_mhz: 2450.0, temp_c: 20.0, moisture_wb: Some(0.0909), eps_real: 2.5, eps_imag: 0.3 },
-    Row { name: "wood-softwood", freq_mhz: 2450.0, temp_c: 20.0, moisture_wb: Some(0.2308), eps_real: 4.5, eps_imag: 1.25 },
-    Row { name: "wood-softwood", freq_mhz: 2450.0, temp_c: 20.0, moisture_wb: Some(0.4118), eps_real: 12.5, eps_imag: 4.0 },
+    Row {
+        name: "wood-softwood",
+        freq_mhz: 2450.0,
+        temp_c: 20.0,
+        moisture_wb: Some(0.0),
+        eps_real: 1.9,
+        eps_imag: 0.075,
+    },
+    Row {
+        name: "wood-softwood",
+        freq_mhz: 2450.0,
+        temp_c: 20.0,
+        moisture_wb: Some(0.0909),
+        eps_real: 2.5,
+        eps_imag: 0.3,
+    },
+    Row {
+        name: "wood-softwood",
+        freq_mhz: 2450.0,
+        temp_c: 20.0,
+        moisture_wb: Some(0.2308),
+        eps_real: 4.5,
+        eps_imag: 1.25,
+    },
+    Row {
+        name: "wood-softwood",
+        freq_mhz: 2450.0,
+        temp_c: 20.0,
+        moisture_wb: Some(0.4118),
+        eps_real: 12.5,
+        eps_imag: 4.0,
+    },
 ];
 
 /// Exact reproduction: a stored point is returned unchanged (one point, weight 1).

@@ -9,6 +9,7 @@
 //! - Kaatze (1989), J. Chem. Eng. Data 34:371-374, single Debye, correlations (from memory,
 //!   shared/sources.md 1.3). Valid -4..60 degC.
 //! - IAPWS R8-97 static permittivity at 0.101325 MPa (values of shared/sources.md 1.1 [CALC]).
+//!
 //! 915 MHz lies below the fitted range of MW and Liebe; their Debye forms still hold there (the
 //! relaxation is far above), as sources.md 1.4 notes.
 
@@ -63,10 +64,7 @@ fn kaatze(f_hz: f64, t: f64) -> (f64, f64) {
     let einf = 5.77 - 2.74e-2 * t;
     let tau = 3.745e-15 * (1.0 + 7e-5 * (t - 27.5).powi(2)) * (2.2957e3 / (t + 273.15)).exp();
     let x = 2.0 * PI * f_hz * tau;
-    (
-        einf + (es - einf) / (1.0 + x * x),
-        (es - einf) * x / (1.0 + x * x),
-    )
+    (einf + (es - einf) / (1.0 + x * x), (es - einf) * x / (1.0 + x * x))
 }
 
 struct Row {
