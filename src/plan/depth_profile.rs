@@ -31,7 +31,12 @@ fn support_layers(scenario: &Scenario) -> (Vec<Layer>, Backing) {
         }
     }
     if stack.air_gap_m > 0.0 {
-        layers.push(Layer { name: "air gap".into(), thickness_m: stack.air_gap_m, permittivity: ComplexPermittivity::VACUUM, is_product: false });
+        layers.push(Layer {
+            name: "air gap".into(),
+            thickness_m: stack.air_gap_m,
+            permittivity: ComplexPermittivity::VACUUM,
+            is_product: false,
+        });
     }
     let backing = match stack.backing {
         BackingSpec::Air => Backing::Air,
@@ -41,13 +46,23 @@ fn support_layers(scenario: &Scenario) -> (Vec<Layer>, Backing) {
 }
 
 /// Solve the bed with the product at permittivity `product_eps`.
-pub fn depth_profile(scenario: &Scenario, frequency_hz: f64, product_eps: ComplexPermittivity) -> Result<StackSolution, InputError> {
+pub fn depth_profile(
+    scenario: &Scenario,
+    frequency_hz: f64,
+    product_eps: ComplexPermittivity,
+) -> Result<StackSolution, InputError> {
     let (below, backing) = support_layers(scenario);
-    let mut layers = vec![Layer { name: "product".into(), thickness_m: scenario.tunnel.bed_depth_m, permittivity: product_eps, is_product: true }];
+    let mut layers = vec![Layer {
+        name: "product".into(),
+        thickness_m: scenario.tunnel.bed_depth_m,
+        permittivity: product_eps,
+        is_product: true,
+    }];
     layers.extend(below);
     let feed = match scenario.tunnel.feed {
         FeedSides::Top => Feed::Top,
         FeedSides::Both => Feed::BothSides,
     };
-    solve_stack(frequency_hz, &layers, backing, feed, SAMPLES_PER_LAYER).map_err(|error| error.within("tunnel.load_stack"))
+    solve_stack(frequency_hz, &layers, backing, feed, SAMPLES_PER_LAYER)
+        .map_err(|error| error.within("tunnel.load_stack"))
 }

@@ -95,13 +95,33 @@ pub fn validate(scenario: &Scenario) -> Vec<InputError> {
             if let Some(slab) = slab {
                 let prefix = format!("tunnel.load_stack.{name}");
                 push(p, require_positive(&format!("{prefix}.thickness_m"), slab.thickness_m, 0.5));
-                push(p, require_in(&format!("{prefix}.eps_real"), slab.eps_real, 1.0, crate::physics::permittivity::EPS_REAL_MAX));
-                push(p, require_in(&format!("{prefix}.eps_imag"), slab.eps_imag, 0.0, crate::physics::permittivity::EPS_IMAG_MAX));
+                push(
+                    p,
+                    require_in(
+                        &format!("{prefix}.eps_real"),
+                        slab.eps_real,
+                        1.0,
+                        crate::physics::permittivity::EPS_REAL_MAX,
+                    ),
+                );
+                push(
+                    p,
+                    require_in(
+                        &format!("{prefix}.eps_imag"),
+                        slab.eps_imag,
+                        0.0,
+                        crate::physics::permittivity::EPS_IMAG_MAX,
+                    ),
+                );
             }
         }
         push(p, require_in("tunnel.load_stack.air_gap_m", stack.air_gap_m, 0.0, 2.0));
         if stack.backing == super::document::BackingSpec::Metal && tunnel.feed == super::document::FeedSides::Both {
-            p.push(InputError::new("tunnel.load_stack.backing", "metal", "air when the bed is fed from both sides (a metal floor blocks the lower feed)"));
+            p.push(InputError::new(
+                "tunnel.load_stack.backing",
+                "metal",
+                "air when the bed is fed from both sides (a metal floor blocks the lower feed)",
+            ));
         }
     }
     p.extend(scenario.losses.validate());

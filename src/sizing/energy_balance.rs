@@ -8,6 +8,7 @@
 //!   2. the water removed, evaporated at T_e: m_evap h_fg(T_e);
 //!   3. the dried product from T_e to T_out, counted only when T_out > T_e (a product that leaves
 //!      cooler than T_e has lost that heat to the air; the generators still had to supply it).
+//!
 //! Losses are explicit allowances: surface and belt losses as percentages of the process heat,
 //! vapour losses (exhaust air, vapour superheat) as a percentage of the evaporation heat.
 

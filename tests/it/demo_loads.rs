@@ -7,9 +7,21 @@ use std::path::Path;
 /// in what the tool tells a user about that scenario: review it as such.
 const EXPECTED: &[(&str, &[&str])] = &[
     ("tempering-beef-blocks.json", &["bed_deeper_than_penetration", "runaway_risk"]),
-    ("pasteurising-potato-trays.json", &["material_data_out_of_range", "material_data_out_of_range", "bed_deeper_than_penetration", "core_lags", "single_generator"]),
+    (
+        "pasteurising-potato-trays.json",
+        &[
+            "material_data_out_of_range",
+            "material_data_out_of_range",
+            "bed_deeper_than_penetration",
+            "core_lags",
+            "single_generator",
+        ],
+    ),
     ("drying-sand-cores.json", &["bed_deeper_than_penetration", "core_lags", "runaway_risk"]),
-    ("layered-meal-trays.json", &["material_data_out_of_range", "material_data_out_of_range", "bed_deeper_than_penetration", "core_lags"]),
+    (
+        "layered-meal-trays.json",
+        &["material_data_out_of_range", "material_data_out_of_range", "bed_deeper_than_penetration", "core_lags"],
+    ),
     ("rf-drying-cotton-packages.json", &[]),
     ("curing-rubber-profile.json", &["material_data_out_of_range", "single_generator"]),
 ];
@@ -36,13 +48,18 @@ fn every_demo_load_is_listed_here() {
 fn every_demo_load_plans_with_its_expected_warnings() {
     for (name, expected) in EXPECTED {
         let plan = run_json(&["plan", &demo_path(name)]);
-        let codes: Vec<&str> = plan["warnings"].as_array().unwrap().iter().map(|w| w["code"].as_str().unwrap()).collect();
+        let codes: Vec<&str> =
+            plan["warnings"].as_array().unwrap().iter().map(|w| w["code"].as_str().unwrap()).collect();
         assert_eq!(&codes, expected, "{name}");
         for warning in plan["warnings"].as_array().unwrap() {
             assert!(warning["message"].as_str().unwrap().len() > 40, "{name}: a warning says what to change");
         }
         assert!(plan["generator_count"].as_u64().unwrap() >= 1, "{name}");
-        let description = serde_json::from_str::<serde_json::Value>(&std::fs::read_to_string(demo_path(name)).unwrap()).unwrap()["description"].as_str().unwrap_or("").len();
+        let description = serde_json::from_str::<serde_json::Value>(&std::fs::read_to_string(demo_path(name)).unwrap())
+            .unwrap()["description"]
+            .as_str()
+            .unwrap_or("")
+            .len();
         assert!(description > 30, "{name} has a short description");
     }
 }
@@ -53,7 +70,10 @@ fn every_demo_load_compares_across_bands() {
         let comparison = run_json(&["compare", &demo_path(name)]);
         let bands = comparison["bands"].as_array().unwrap();
         assert!(bands.iter().any(|band| band["is_scenario_band"] == true), "{name}");
-        assert!(bands.iter().filter(|band| band["generator_count"].is_u64()).count() >= 3, "{name}: at least three bands plan");
+        assert!(
+            bands.iter().filter(|band| band["generator_count"].is_u64()).count() >= 3,
+            "{name}: at least three bands plan"
+        );
     }
     let output = run(&["plan", &demo_path("tempering-beef-blocks.json"), "--format", "text"]);
     assert!(output.status.success());

@@ -36,7 +36,14 @@ fn planned(text: &str) -> Plan {
 #[test]
 fn sensible_heating_of_water_only() {
     // 1000 kg/h of water from 10 to 80 degC: absorbed = m (h(80) - h(10)) with h from IAPWS-IF97.
-    let plan = planned(&scenario_json("heating", r#"{"library": "water"}"#, 1000.0, r#"{"temp_c": 10}"#, r#"{"temp_c": 80}"#, ""));
+    let plan = planned(&scenario_json(
+        "heating",
+        r#"{"library": "water"}"#,
+        1000.0,
+        r#"{"temp_c": 10}"#,
+        r#"{"temp_c": 80}"#,
+        "",
+    ));
     let delta_h_kj_per_kg = seuif97::pt2h(ATMOSPHERE_MPA, 80.0) - seuif97::pt2h(ATMOSPHERE_MPA, 10.0);
     assert_relative_eq!(plan.absorbed_power_kw, 1000.0 * delta_h_kj_per_kg / 3600.0, max_relative = SENSIBLE_TOLERANCE);
     assert_eq!(plan.energy_balance.fusion_kw, 0.0, "no phase change");
@@ -70,7 +77,14 @@ fn tempering_lean_beef_against_the_ashrae_enthalpy() {
     // ASHRAE Handbook, Refrigeration, Thermal Properties of Foods (Chen/Schwartzberg form) for lean
     // beef, as evaluated in shared/sources.md 7 [CALC]: H(-18 -> -4 degC) = 98.18 kJ/kg. The library
     // entry's composition may differ slightly from the one used there; 3 % covers that.
-    let plan = planned(&scenario_json("tempering", r#"{"library": "beef-lean"}"#, 3600.0, r#"{"temp_c": -18}"#, r#"{"temp_c": -4}"#, ""));
+    let plan = planned(&scenario_json(
+        "tempering",
+        r#"{"library": "beef-lean"}"#,
+        3600.0,
+        r#"{"temp_c": -18}"#,
+        r#"{"temp_c": -4}"#,
+        "",
+    ));
     assert_relative_eq!(plan.absorbed_power_kw, 98.18, max_relative = 0.03);
     assert!(plan.energy_balance.fusion_kw > 0.5 * plan.absorbed_power_kw, "most tempering energy melts ice");
     assert!(plan.energy_balance.ice_melted_kg_per_h > 0.0);
@@ -82,7 +96,14 @@ fn thawing_lean_beef_against_the_published_figure() {
     // An equipment supplier's note: thawing "typically requires 232 kj/kg ... with 90% lean beef
     // starting at -18 degC" (shared/sources.md 10.1). The ASHRAE form gives 227.6 kJ/kg from -18 degC
     // to the initial freezing point (sources.md 7). 5 % covers the different leanness.
-    let plan = planned(&scenario_json("thawing", r#"{"library": "beef-lean"}"#, 3600.0, r#"{"temp_c": -18}"#, r#"{"temp_c": 0}"#, ""));
+    let plan = planned(&scenario_json(
+        "thawing",
+        r#"{"library": "beef-lean"}"#,
+        3600.0,
+        r#"{"temp_c": -18}"#,
+        r#"{"temp_c": 0}"#,
+        "",
+    ));
     assert_relative_eq!(plan.absorbed_power_kw, 232.0, max_relative = 0.05);
 }
 
@@ -148,7 +169,14 @@ fn limits_zero_throughput_and_bone_dry() {
     assert_eq!(bone_dry.energy_balance.outlet_moisture_db, 0.0);
 
     // A product with no water at all heats with no latent terms.
-    let dry = planned(&scenario_json("heating", r#"{"library": "ptfe"}"#, 100.0, r#"{"temp_c": 20}"#, r#"{"temp_c": 120}"#, ""));
+    let dry = planned(&scenario_json(
+        "heating",
+        r#"{"library": "ptfe"}"#,
+        100.0,
+        r#"{"temp_c": 20}"#,
+        r#"{"temp_c": 120}"#,
+        "",
+    ));
     assert_eq!(dry.energy_balance.fusion_kw, 0.0);
     assert_eq!(dry.energy_balance.evaporation_kw, 0.0);
     assert!(dry.absorbed_power_kw > 0.0);
@@ -160,8 +188,12 @@ fn efficiency_chain_of_an_application_note() {
     // calculated power by 0.85 to arrive at a realistic power level" and mains "= generator power
     // level x 1.25". With applicator 0.85, transmission 1, generator x supply = 0.8 the chain must
     // give forward = absorbed / 0.85 and mains = generator output x 1.25.
-    let text = scenario_json("heating", r#"{"library": "water"}"#, 1000.0, r#"{"temp_c": 10}"#, r#"{"temp_c": 80}"#, "")
-        .replace(r#""power_supply": 1.0, "generator": 1.0, "transmission": 1.0, "applicator": 1.0"#, r#""power_supply": 1.0, "generator": 0.8, "transmission": 1.0, "applicator": 0.85"#);
+    let text =
+        scenario_json("heating", r#"{"library": "water"}"#, 1000.0, r#"{"temp_c": 10}"#, r#"{"temp_c": 80}"#, "")
+            .replace(
+                r#""power_supply": 1.0, "generator": 1.0, "transmission": 1.0, "applicator": 1.0"#,
+                r#""power_supply": 1.0, "generator": 0.8, "transmission": 1.0, "applicator": 0.85"#,
+            );
     let plan = planned(&text);
     assert_relative_eq!(plan.forward_power_kw, plan.absorbed_power_kw / 0.85, max_relative = 1e-12);
     assert_relative_eq!(plan.mains_power_kw, plan.generator_output_kw * 1.25, max_relative = 1e-12);

@@ -1,0 +1,80 @@
+#!/usr/bin/env bash
+# Builds the browser app into dist/: the wasm module, its wasm-bindgen glue, the page shell,
+# the styles and the demo loads. Run .ci/setup.sh first.
+#
+# WEB_TARGET_DIR overrides the cargo target directory (default target/web, kept between runs so
+# rebuilds are incremental; separate from target/ so a native build never waits on its lock).
+set -euo pipefail
+# shellcheck source=common.sh source-path=SCRIPTDIR
+source "$(dirname "${BASH_SOURCE[0]}")/common.sh"
+cd "$repo_root"
+
+build_started=$SECONDS
+target_dir="${WEB_TARGET_DIR:-$repo_root/target/web}"
+dist_dir="$repo_root/dist"
+bin_name="doubleprime-web"
+
+[ -x "$wasm_bindgen_bin" ] || fail "no wasm-bindgen in .tools: run .ci/setup.sh"
+[ -x "$wasm_opt_bin" ] || fail "no wasm-opt in .tools: run .ci/setup.sh"
+bindgen_version="$(wasm_bindgen_locked_version)"
+[ "$("$wasm_bindgen_bin" --version)" = "wasm-bindgen $bindgen_version" ] ||
+    fail "wasm-bindgen in .tools is not $bindgen_version (Cargo.lock): run .ci/setup.sh"
+
+# Every stylesheet must be linked from the page, or it would be copied and silently unused.
+for css in style/*.css; do
+    [ -e "$css" ] || continue
+    grep -q "href=\"$css\"" index.html || fail "$css is not linked from index.html"
+done
+
+select_wasm_toolchain
+cargo_flags=(--release --target wasm32-unknown-unknown --features web --bin "$bin_name"
+    --target-dir "$target_dir")
+# In CI the committed Cargo.lock must already be complete.
+if [ "${CI:-}" = "true" ]; then cargo_flags+=(--locked); fi
+log "cargo build: $bin_name for wasm32 ($wasm_route toolchain, target dir ${target_dir#"$repo_root"/})"
+cargo_started=$SECONDS
+"$wasm_cargo" build "${cargo_flags[@]}"
+log "cargo build: $((SECONDS - cargo_started)) s"
+
+# Assemble in a staging directory and swap it in at the end, so a failed build never leaves a
+# half-written dist/ behind for a running server.
+staging="$target_dir/dist-staging"
+rm -rf "$staging"
+mkdir -p "$staging/style"
+
+log "wasm-bindgen --target web"
+"$wasm_bindgen_bin" "$target_dir/wasm32-unknown-unknown/release/$bin_name.wasm" \
+    --out-dir "$staging" --target web --no-typescript
+
+log "wasm-opt -Oz (binaryen $binaryen_version)"
+wasm_file="$staging/${bin_name}_bg.wasm"
+"$wasm_opt_bin" -Oz "$wasm_file" -o "$wasm_file.opt"
+mv "$wasm_file.opt" "$wasm_file"
+
+log "copying index.html, boot.js, style/*.css, demo-loads/*.json"
+cp index.html src/web/boot.js "$staging/"
+cp style/*.css "$staging/style/"
+# Only the scenarios themselves: demo-loads/README.md documents them for people, not the page.
+mkdir -p "$staging/demo-loads"
+for demo in demo-loads/*.json; do
+    [ -e "$demo" ] && cp "$demo" "$staging/demo-loads/"
+done
+
+rm -rf "$dist_dir"
+mv "$staging" "$dist_dir"
+
+# size_line LABEL FILE...: raw and gzip -9 bytes, summed over the files.
+size_line() {
+    local label="$1" raw=0 gzipped=0 file
+    shift
+    for file in "$@"; do
+        raw=$((raw + $(wc -c <"$file")))
+        gzipped=$((gzipped + $(gzip -9 -c "$file" | wc -c)))
+    done
+    printf '    %-5s %9d bytes raw %9d bytes gzipped\n' "$label" "$raw" "$gzipped"
+}
+log "dist/ sizes"
+size_line wasm "$dist_dir/${bin_name}_bg.wasm"
+size_line js "$dist_dir/$bin_name.js" "$dist_dir/boot.js"
+size_line css "$dist_dir"/style/*.css
+log "build-web done in $((SECONDS - build_started)) s"

@@ -1,0 +1,58 @@
+#!/usr/bin/env bash
+# Everything CI checks, in order: setup, format, lints, native tests, the wasm build, and the
+# built page in headless Chromium. Exits non-zero at the first failure.
+set -euo pipefail
+# shellcheck source=common.sh source-path=SCRIPTDIR
+source "$(dirname "${BASH_SOURCE[0]}")/common.sh"
+cd "$repo_root"
+
+test_started=$SECONDS
+# step NAME COMMAND...: run one step with its name and duration in the log.
+step() {
+    local name="$1" started=$SECONDS
+    shift
+    log "$name"
+    "$@"
+    log "$name: ok ($((SECONDS - started)) s)"
+}
+
+# In CI the committed Cargo.lock must already be complete.
+locked=()
+if [ "${CI:-}" = "true" ]; then locked=(--locked); fi
+
+step "setup" bash .ci/setup.sh
+step "cargo fmt --check" cargo fmt --all -- --check
+step "cargo clippy" cargo clippy "${locked[@]}" --all-targets -- -D warnings
+step "cargo test" cargo test "${locked[@]}"
+# The browser code, linted and unit-tested natively (Leptos builds for the host too), so one
+# command serves the rustup and the Debian routes alike: about 3 minutes from cold, together.
+step "cargo clippy --features web" cargo clippy "${locked[@]}" --features web --all-targets -- -D warnings
+step "cargo test --features web (browser code, native)" \
+    cargo test "${locked[@]}" --features web --bin doubleprime-web
+step "wasm build" bash .ci/build-web.sh
+
+server_dir="$(mktemp -d)"
+server_pid=""
+stop_server() {
+    if [ -n "$server_pid" ]; then
+        kill "$server_pid" 2>/dev/null || true
+        wait "$server_pid" 2>/dev/null || true
+    fi
+    rm -rf "$server_dir"
+}
+trap stop_server EXIT
+
+# Port 0: the server takes a free port and names it on its first line.
+python3 .ci/serve_dist.py dist 0 >"$server_dir/out" 2>"$server_dir/requests.log" &
+server_pid=$!
+base_url=""
+for _ in $(seq 100); do
+    base_url="$(sed -n 's/^serving .* at \(http:[^ ]*\)$/\1/p' "$server_dir/out")"
+    [ -n "$base_url" ] && break
+    kill -0 "$server_pid" 2>/dev/null || fail "the test server exited: $(cat "$server_dir/requests.log")"
+    sleep 0.1
+done
+[ -n "$base_url" ] || fail "the test server did not start"
+step "browser smoke test at $base_url" bash tests/browser/smoke.sh "$base_url"
+
+log "all checks passed in $((SECONDS - test_started)) s"
