@@ -354,7 +354,9 @@ fn plan_with(scenario: &Scenario, product: &Product) -> Result<Plan, Vec<InputEr
                 state,
                 min_to_max_ratio: u.and_then(|u| u.min_to_max_ratio),
                 core_to_surface_ratio: u.and_then(|u| u.core_to_surface_ratio),
-                half_power_depth_m: u.and_then(|u| u.fraction_depths.iter().find(|d| (d.fraction - 0.5).abs() < 1e-9).and_then(|d| d.depth_m)),
+                half_power_depth_m: u.and_then(|u| {
+                    u.fraction_depths.iter().find(|d| (d.fraction - 0.5).abs() < 1e-9).and_then(|d| d.depth_m)
+                }),
                 core_lags: u.is_some_and(|u| u.core_lags),
                 single_pass_absorptance: solution.product_absorptance,
             }
@@ -364,7 +366,9 @@ fn plan_with(scenario: &Scenario, product: &Product) -> Result<Plan, Vec<InputEr
     let depth_profile = profiles
         .into_iter()
         .min_by(|a, b| {
-            let share = |s: &crate::physics::layers::StackSolution| s.uniformity.as_ref().and_then(|u| u.core_to_surface_ratio).unwrap_or(1.0);
+            let share = |s: &crate::physics::layers::StackSolution| {
+                s.uniformity.as_ref().and_then(|u| u.core_to_surface_ratio).unwrap_or(1.0)
+            };
             share(&a.1).partial_cmp(&share(&b.1)).unwrap_or(std::cmp::Ordering::Equal)
         })
         .map(|(state, solution)| DepthProfile { state, solution });
@@ -480,7 +484,10 @@ fn plan_warnings(scenario: &Scenario, product: &Product, plan: &Plan) -> Vec<War
         }
     }
     if let Some(lagging) = plan.uniformity.iter().find(|u| u.core_lags) {
-        let share = lagging.core_to_surface_ratio.map(|r| format!("{:.0} %", r * 100.0)).unwrap_or_else(|| "almost none".into());
+        let share = lagging
+            .core_to_surface_ratio
+            .map(|r| format!("{:.0} %", r * 100.0))
+            .unwrap_or_else(|| "almost none".into());
         list.push(Warning::new(
             "core_lags",
             format!("At the {} the product's core receives {share} of the surface power density (layered solution through the bed): the core will lag behind the surface. Make the bed thinner, feed from both sides, add equalising time, or use a lower frequency.", lagging.state),
