@@ -214,8 +214,20 @@ pub fn plan(scenario: &Scenario) -> Result<Plan, Vec<InputError>> {
     let mut problems = scenario::validate(scenario);
     let product = Product::from_scenario(scenario).map_err(|errors| problems.extend(errors)).ok();
     match product {
-        Some(product) if problems.is_empty() => plan_with(scenario, &product),
+        Some(product) if problems.is_empty() => plan_with(scenario, &product).and_then(finite_or_error),
         _ => Err(problems),
+    }
+}
+
+/// Refuse a plan holding a NaN or an infinity: a named error beats a silent blank.
+fn finite_or_error(plan: Plan) -> Result<Plan, Vec<InputError>> {
+    match crate::finite::first_non_finite(&plan) {
+        None => Ok(plan),
+        Some(path) => Err(vec![InputError::new(
+            "scenario",
+            format!("a plan whose {path} is not a finite number"),
+            "inputs inside the models' ranges (this combination drives a model outside them)",
+        )]),
     }
 }
 

@@ -3,7 +3,9 @@
 mod cli_dielectric;
 mod cli_layers;
 mod cli_material;
+mod cli_plan;
 mod demo_loads;
 mod physics_properties;
 mod plan_energy_balance;
+mod scenario_properties;
 mod support;
