@@ -4,13 +4,16 @@
 //! Steps: resolve the product; balance the energy (sizing::energy_balance); walk the efficiency
 //! chain back to the mains (sizing::efficiency_chain); choose and count generators
 //! (sizing::generators); lay out the tunnel (sizing::tunnel); look up the permittivity at the
-//! inlet and outlet states (materials) for penetration depth against bed depth; add utilities,
-//! cost, warnings and the standing cautions.
+//! inlet and outlet states (materials) for penetration depth against bed depth; march the zones
+//! along the tunnel (zone_march); add utilities, cost, warnings, the standing cautions and the
+//! sensitivity of the quote (sensitivity, which re-runs the core without itself).
 
 pub mod band_comparison;
 pub mod depth_profile;
 pub mod product;
+pub mod sensitivity;
 pub mod warnings;
+pub mod zone_march;
 
 use crate::error::InputError;
 use crate::materials::thermal;
@@ -70,6 +73,24 @@ pub struct Zone {
     pub eps_imag: f64,
     /// Power absorbed in the zone, kW.
     pub absorbed_kw: f64,
+    /// Stage of the balance's path at the zone's mean state: `heating`, `evaporating` or
+    /// `heating_dried`.
+    pub stage: &'static str,
+    /// Fraction of the zone's forward power the product absorbs (cavity model; RF: the scenario's
+    /// applicator efficiency).
+    pub coupling: f64,
+    /// Fraction of the incident power the bed absorbs in one pass (layered solution; `None` at RF).
+    pub single_pass_absorptance: Option<f64>,
+    /// Power penetration depth at the zone's mean state, m (`None` for a lossless product).
+    pub penetration_depth_m: Option<f64>,
+    /// Mean absorbed power density in the zone's bed volume, kW/m^3.
+    pub mean_power_density_kw_per_m3: f64,
+    /// Highest RMS field in the product in the zone, V/m (`None` for a lossless product).
+    pub peak_field_v_per_m: Option<f64>,
+    /// Whether the loss factor rises with temperature in the zone (runaway risk).
+    pub runaway: bool,
+    /// Water evaporated in the zone, kg/h.
+    pub water_removed_kg_per_h: f64,
 }
 
 /// The power density through the bed at the product state where it is least even.
@@ -175,6 +196,9 @@ pub struct Plan {
     pub cooling_water_l_per_min: f64,
     /// Mean RMS field in the product implied by the mean power density, V/m.
     pub mean_field_v_per_m: Option<f64>,
+    /// Highest RMS field in the product over the zones (zone power density times the layered
+    /// profile's peak-to-mean ratio), V/m.
+    pub peak_field_v_per_m: Option<f64>,
     /// Bed depth over the smallest penetration depth met in the tunnel.
     pub bed_over_penetration_depth: Option<f64>,
     /// The energy balance.
@@ -193,6 +217,10 @@ pub struct Plan {
     pub dielectric_outlet: DielectricState,
     /// Profiles along the tunnel.
     pub zones: Vec<Zone>,
+    /// How the zone march shared the absorbed power out (`None` only inside a sensitivity row).
+    pub zone_model: Option<zone_march::ZoneModel>,
+    /// What the quote is most sensitive to, ranked.
+    pub sensitivity: Vec<sensitivity::SensitivityRow>,
     /// Power density through the bed depth (the less even of inlet and outlet).
     pub depth_profile: Option<DepthProfile>,
     /// Evenness through the bed at the inlet and the outlet.
@@ -242,7 +270,36 @@ fn catalogue_for(scenario: &Scenario) -> Vec<GeneratorClass> {
     catalogue
 }
 
+/// How much of a plan to compute: all of it, or only what a sensitivity row reads.
+#[derive(Debug, Clone, Copy)]
+struct PlanDepth {
+    /// Solve the layered depth profiles at the inlet and outlet (uniformity).
+    depth_profiles: bool,
+    /// March the zones along the tunnel.
+    zone_march: bool,
+    /// Collect the warnings (the runaway scan and the band suggestion are their costly part).
+    warnings: bool,
+    /// Run the sensitivity study (never inside a sensitivity row: no recursion).
+    sensitivity: bool,
+}
+
+impl PlanDepth {
+    /// The whole plan.
+    const FULL: PlanDepth = PlanDepth { depth_profiles: true, zone_march: true, warnings: true, sensitivity: true };
+    /// A sensitivity row whose input moves the product's permittivity: sizing, dielectric states
+    /// and depth profiles.
+    const ROW_DIELECTRIC: PlanDepth =
+        PlanDepth { depth_profiles: true, zone_march: false, warnings: false, sensitivity: false };
+    /// A sensitivity row whose input leaves the permittivity alone: sizing and dielectric states.
+    const ROW_SIZING: PlanDepth =
+        PlanDepth { depth_profiles: false, zone_march: false, warnings: false, sensitivity: false };
+}
+
 fn plan_with(scenario: &Scenario, product: &Product) -> Result<Plan, Vec<InputError>> {
+    plan_core(scenario, product, &PlanDepth::FULL)
+}
+
+fn plan_core(scenario: &Scenario, product: &Product, depth: &PlanDepth) -> Result<Plan, Vec<InputError>> {
     let drying = scenario.process == ProcessKind::Drying;
     let moisture_in = scenario.inlet.moisture_wb.unwrap_or_else(|| product.default_moisture_wb());
     let moisture_out = scenario.outlet.moisture_wb.unwrap_or(moisture_in);
@@ -354,7 +411,9 @@ fn plan_with(scenario: &Scenario, product: &Product) -> Result<Plan, Vec<InputEr
         field_for_power_density_v_per_m(frequency_hz, mean_eps_imag, tunnel.mean_power_density_kw_per_m3 * 1000.0);
 
     let mut profiles = Vec::new();
-    for (state, dielectric) in [("inlet", &dielectric_inlet), ("outlet", &dielectric_outlet)] {
+    let profiled: &[(&'static str, &DielectricState)] =
+        if depth.depth_profiles { &[("inlet", &dielectric_inlet), ("outlet", &dielectric_outlet)] } else { &[] };
+    for &(state, dielectric) in profiled {
         let eps = crate::physics::permittivity::ComplexPermittivity::new(dielectric.eps_real, dielectric.eps_imag);
         profiles.push((state, depth_profile::depth_profile(scenario, frequency_hz, eps).map_err(|e| vec![e])?));
     }
@@ -385,17 +444,31 @@ fn plan_with(scenario: &Scenario, product: &Product) -> Result<Plan, Vec<InputEr
         })
         .map(|(state, solution)| DepthProfile { state, solution });
 
-    let zones = vec![Zone {
-        index: 1,
-        start_m: 0.0,
-        end_m: tunnel.tunnel_length_m,
-        temp_c: scenario.outlet.temp_c,
-        moisture_wb: moisture_out,
-        frozen_fraction: dielectric_outlet.frozen_fraction,
-        eps_real: 0.5 * (dielectric_inlet.eps_real + dielectric_outlet.eps_real),
-        eps_imag: mean_eps_imag,
-        absorbed_kw: energy.absorbed_kw,
-    }];
+    let march = if depth.zone_march {
+        Some(
+            zone_march::march(&zone_march::MarchInput {
+                scenario,
+                product,
+                energy: &energy,
+                tunnel: &tunnel,
+                frequency_hz,
+                inlet_moisture_wb: moisture_in,
+                outlet_moisture_wb: moisture_out,
+                evaporation_temp_c,
+                latent_heat_j_per_kg: latent_heat,
+                applicator_efficiency: scenario.efficiency.applicator,
+            })
+            .map_err(|e| vec![e.within("zones")])?,
+        )
+    } else {
+        None
+    };
+    let peak_field_v_per_m =
+        march.as_ref().and_then(|m| m.zones.iter().filter_map(|zone| zone.peak_field_v_per_m).reduce(f64::max));
+    let (zones, zone_model) = match march {
+        Some(march) => (march.zones, Some(march.model)),
+        None => (Vec::new(), None),
+    };
 
     let mut plan = Plan {
         name: scenario.name.clone(),
@@ -416,6 +489,7 @@ fn plan_with(scenario: &Scenario, product: &Product) -> Result<Plan, Vec<InputEr
         specific_energy_kwh_per_kg_water: utilities.mains_energy_kwh_per_kg_water,
         cooling_water_l_per_min: utilities.cooling_water_l_per_min,
         mean_field_v_per_m,
+        peak_field_v_per_m,
         bed_over_penetration_depth,
         energy_balance: energy,
         power_flow: flow,
@@ -425,6 +499,8 @@ fn plan_with(scenario: &Scenario, product: &Product) -> Result<Plan, Vec<InputEr
         dielectric_inlet,
         dielectric_outlet,
         zones,
+        zone_model,
+        sensitivity: Vec::new(),
         depth_profile,
         uniformity,
         warnings: Vec::new(),
@@ -455,7 +531,12 @@ fn plan_with(scenario: &Scenario, product: &Product) -> Result<Plan, Vec<InputEr
         project: scenario.project.clone(),
         version: env!("CARGO_PKG_VERSION"),
     };
-    plan.warnings = plan_warnings(scenario, product, &plan);
+    if depth.warnings {
+        plan.warnings = plan_warnings(scenario, product, &plan);
+    }
+    if depth.sensitivity {
+        plan.sensitivity = sensitivity::sensitivity(scenario, product, &plan);
+    }
     Ok(plan)
 }
 
@@ -505,13 +586,26 @@ fn plan_warnings(scenario: &Scenario, product: &Product, plan: &Plan) -> Vec<War
             format!("At the {} the product's core receives {share} of the surface power density (layered solution through the bed): the core will lag behind the surface. Make the bed thinner, feed from both sides, add equalising time, or use a lower frequency.", lagging.state),
         ));
     }
-    if let Ok(Some(risk)) = crate::materials::warnings::runaway_risk(
+    let runaway_zones =
+        plan.zone_model.as_ref().and_then(|model| zone_march::runaway_zones_sentence(&plan.zones, model));
+    match crate::materials::warnings::runaway_risk(
         &product.material,
         scenario.frequency_mhz * 1e6,
         &product.state(scenario.inlet.temp_c, plan.assumptions.inlet_moisture_wb),
         &product.state(scenario.outlet.temp_c, plan.assumptions.outlet_moisture_wb),
     ) {
-        list.push(Warning::new("runaway_risk", risk.message));
+        Ok(Some(risk)) => list.push(Warning::new(
+            "runaway_risk",
+            match runaway_zones {
+                Some(zones) => format!("{}. {zones}", risk.message),
+                None => risk.message,
+            },
+        )),
+        _ => {
+            if let Some(zones) = runaway_zones {
+                list.push(Warning::new("runaway_risk", format!("{}: {zones}", product.material.label)));
+            }
+        }
     }
     let selection = &plan.generators;
     if selection.operating_fraction < LOW_OPERATING_FRACTION {
@@ -526,11 +620,18 @@ fn plan_warnings(scenario: &Scenario, product: &Product, plan: &Plan) -> Vec<War
             format!("Each {} would run at {:.0} % of its rating, below its stable minimum of {:.0} %. Choose a smaller class.", selection.class.label, selection.operating_fraction * 100.0, selection.class.min_operating_fraction * 100.0),
         ));
     }
-    if let Some(field) = plan.mean_field_v_per_m {
+    // The zones' peak field where the march ran; the mean field otherwise.
+    let (field, which) = match plan.peak_field_v_per_m {
+        Some(peak) => {
+            (Some(peak), "peak field in the product (zone power density times the peak-to-mean ratio through the bed)")
+        }
+        None => (plan.mean_field_v_per_m, "mean field in the product"),
+    };
+    if let Some(field) = field {
         if field > FIELD_ARCING_CONCERN_V_PER_M {
             list.push(Warning::new(
                 "arcing_risk",
-                format!("The mean field in the product is about {:.0} kV/m, above the {:.0} kV/m kept as margin below the breakdown of air: arcing at edges and in vapour is likely. Spread the power over a longer tunnel or a wider belt.", field / 1000.0, FIELD_ARCING_CONCERN_V_PER_M / 1000.0),
+                format!("The {which} is about {:.0} kV/m, above the {:.0} kV/m kept as margin below the breakdown of air: arcing at edges and in vapour is likely. Spread the power over a longer tunnel or a wider belt.", field / 1000.0, FIELD_ARCING_CONCERN_V_PER_M / 1000.0),
             ));
         }
     }
@@ -541,6 +642,7 @@ fn plan_warnings(scenario: &Scenario, product: &Product, plan: &Plan) -> Vec<War
             format!("The loss factor falls to {loss_factor:.3}: such a product couples poorly, so the applicator efficiency of {:.0} % assumed is optimistic and the walls and belt take a larger share.", plan.assumptions.efficiency.applicator * 100.0),
         ));
     }
+    list.extend(plan.zone_model.as_ref().and_then(zone_march::coupling_warning));
     if plan.tunnel_length_m > LONG_TUNNEL_M {
         list.push(Warning::new(
             "long_tunnel",

@@ -1,5 +1,11 @@
 //! The product as the plan uses it: a library or user-defined material with the scenario's salt
 //! and default moisture, giving permittivity and enthalpy at any state.
+//!
+//! One explicit knob, [`Product::loss_factor_multiplier`], scales every loss factor the plan looks
+//! up (eps'' -> m eps'', eps' unchanged). It is 1 for a plan from a scenario; the sensitivity
+//! study (plan::sensitivity) sets it to 0.8 and 1.2 to ask what an error in the measured loss
+//! factor would do. It lives here, on the value the plan is computed from, rather than in any
+//! global, so two plans computed at once can never see each other's setting.
 
 use crate::error::InputError;
 use crate::materials::{self, Material, MaterialState, PermittivityLookup};
@@ -13,6 +19,9 @@ pub struct Product {
     pub material: Material,
     /// Salt, % by mass, if the scenario or the material gives it.
     pub salt_pct: Option<f64>,
+    /// Factor applied to every loss factor eps'' looked up through [`Product::permittivity`]
+    /// (finite, 0 or more; 1 = the material's own data). Enthalpies are not affected.
+    pub loss_factor_multiplier: f64,
 }
 
 impl Product {
@@ -34,7 +43,7 @@ impl Product {
             }
             (None, None) => return Err(vec![InputError::new("product", "empty", "exactly one of library or custom")]),
         };
-        Ok(Product { material, salt_pct: scenario.salt_pct })
+        Ok(Product { material, salt_pct: scenario.salt_pct, loss_factor_multiplier: 1.0 })
     }
 
     /// Moisture to use when the scenario gives none: the material's own, or 0 for a dry material.
@@ -47,14 +56,25 @@ impl Product {
         MaterialState { temp_c, moisture_wb: Some(moisture_wb), salt_pct: self.salt_pct }
     }
 
-    /// Permittivity at a state and frequency.
+    /// Permittivity at a state and frequency, with eps'' scaled by
+    /// [`Product::loss_factor_multiplier`] (the lookup's model text says so when it is not 1).
     pub fn permittivity(
         &self,
         frequency_hz: f64,
         temp_c: f64,
         moisture_wb: f64,
     ) -> Result<PermittivityLookup, InputError> {
-        materials::permittivity(&self.material, frequency_hz, &self.state(temp_c, moisture_wb))
+        let multiplier = self.loss_factor_multiplier;
+        if !(multiplier.is_finite() && multiplier >= 0.0) {
+            return Err(InputError::new("loss_factor_multiplier", multiplier, "a finite factor of 0 or more"));
+        }
+        let mut lookup = materials::permittivity(&self.material, frequency_hz, &self.state(temp_c, moisture_wb))?;
+        // An exact 1 is the plain plan: leave the lookup untouched, bit for bit.
+        if multiplier != 1.0 {
+            lookup.eps.eps_imag *= multiplier;
+            lookup.model = format!("{} (eps'' x {multiplier})", lookup.model);
+        }
+        Ok(lookup)
     }
 }
 
@@ -65,5 +85,38 @@ impl ProductThermal for Product {
 
     fn ice_mass_fraction(&self, temp_c: f64, moisture_wb: f64) -> Result<f64, InputError> {
         Ok(self.material.frozen_fraction_at(temp_c, Some(moisture_wb))? * moisture_wb)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::materials::library;
+
+    fn beef(multiplier: f64) -> Product {
+        let material = library().get("beef-lean").cloned().expect("beef-lean is in the library");
+        Product { material, salt_pct: None, loss_factor_multiplier: multiplier }
+    }
+
+    #[test]
+    fn the_multiplier_scales_only_the_loss_factor() {
+        // Exact identity: eps'' x m, eps' untouched.
+        let plain = beef(1.0).permittivity(915e6, 10.0, 0.74).unwrap();
+        let raised = beef(1.2).permittivity(915e6, 10.0, 0.74).unwrap();
+        assert_eq!(raised.eps.eps_real, plain.eps.eps_real);
+        assert_eq!(raised.eps.eps_imag, plain.eps.eps_imag * 1.2);
+        assert!(raised.model.contains("x 1.2"));
+        assert_eq!(
+            plain.model,
+            materials::permittivity(&beef(1.0).material, 915e6, &beef(1.0).state(10.0, 0.74)).unwrap().model
+        );
+    }
+
+    #[test]
+    fn a_bad_multiplier_is_refused() {
+        for bad in [-0.1, f64::NAN, f64::INFINITY] {
+            assert_eq!(beef(bad).permittivity(915e6, 10.0, 0.74).unwrap_err().field, "loss_factor_multiplier");
+        }
+        assert_eq!(beef(0.0).permittivity(915e6, 10.0, 0.74).unwrap().eps.eps_imag, 0.0);
     }
 }

@@ -7,5 +7,6 @@ mod cli_plan;
 mod demo_loads;
 mod physics_properties;
 mod plan_energy_balance;
+mod plan_zones;
 mod scenario_properties;
 mod support;

@@ -1,0 +1,940 @@
+//! The zone march: the product's temperature, moisture and frozen fraction advanced zone by zone
+//! along the tunnel, with its permittivity looked up again at each zone's state, so that the power
+//! each zone absorbs follows the product as it changes.
+//!
+//! # The distribution (microwave: a cavity of many passes)
+//!
+//! The total power the product absorbs is the energy balance's, P_abs (sizing::energy_balance):
+//! the march does not change it, it distributes it. Each of the N zones receives the same forward
+//! power; zone i turns a fraction eta_i of it into heat in the product, so
+//!
+//! ```text
+//! P_i = P_abs eta_i / sum_j eta_j          (sum_i P_i = P_abs: energy is conserved exactly)
+//! eta = a / (a + w (1 - a))                cavity coupling after a geometric series of passes
+//! ```
+//!
+//! where a is the load's single-pass absorptance at the zone's state and w the fraction of the
+//! power left after a pass that the walls, chokes and openings (the feed port included) take
+//! before the next pass. The series: the load takes a; of the (1 - a) that passes, w is lost and
+//! (1 - w)(1 - a) comes back for another pass, so the load takes a sum_k [(1 - a)(1 - w)]^k.
+//! This is the loaded-Q form of an applicator's efficiency, eta = 1 - Q_L / Q_0 (Metaxas &
+//! Meredith, *Industrial Microwave Heating*, IEE 1983, ch. 5 on applicator efficiency and Q
+//! factors; from memory), with a standing for 1/Q of the load and w for 1/Q of the empty cavity.
+//! a comes from the layered solution through the bed at the zone's permittivity
+//! (plan::depth_profile, physics::layers: slab absorption with the surface reflection, the tray,
+//! the belt and the backing; normal incidence). w = [`WALL_LOSS_PER_PASS`] = 0.03 is a stated
+//! default for a metal tunnel with chokes (common practice, from memory), not a measurement. The
+//! mean coupling sum eta_i / N is what the cavity model gives for the applicator efficiency; the
+//! plan keeps the scenario's assumed efficiency for the forward power and warns when the model
+//! falls well short of it ([`COUPLING_SHORTFALL`]).
+//!
+//! # The distribution (RF: capacitive applicators)
+//!
+//! Below [`RF_CAPACITIVE_BELOW_MHZ`] the applicator is a pair of electrodes, not a cavity, and the
+//! bed is a small fraction of a wavelength thick (11 m at 27.12 MHz): the plane-wave passes above
+//! do not describe it. There every zone gets P_abs / N, its coupling is reported as the scenario's
+//! applicator efficiency, no single-pass absorptance is given, and the field in the bed is taken
+//! as even through its depth (peak-to-mean ratio 1). How the power would follow eps'' between
+//! electrodes depends on the electrode gap, which the scenario does not give.
+//!
+//! # The states: enthalpy along the balance's path
+//!
+//! Each zone adds its net energy per kg of product in, q_i = (P_i / P_abs) e_process, with
+//! e_process the balance's process heat per kg (the loss allowances are taken off in proportion:
+//! net = absorbed x process / absorbed). The march follows the balance's stated path:
+//!
+//! 1. heat the wet product from T_in to the evaporation temperature T_e (to T_out when nothing
+//!    dries): T from H(T, x_in) = H(T_in, x_in) + e, inverted by a bracketed root search (the
+//!    Illinois variant of regula falsi: it keeps the bisection's bracket and guarantee and needs a
+//!    handful of evaluations; H rises monotonically in T, latent heat of ice included);
+//! 2. evaporate at T_e: the water removed per kg in is w = e / h_fg(T_e), the moisture
+//!    x = (x_in - w) / (1 - w) (wet basis, water left over mass left);
+//! 3. heat the dried product from T_e to T_out: H(T, x_out) per kg of product out, counted only
+//!    when T_out > T_e (a product leaving cooler than T_e leaves the last zone at T_e, as in the
+//!    balance). A product entering hotter than T_e flashes at the inlet: its excess heat evaporates
+//!    water as it enters, as the balance credits it, and that water counts in the first zone.
+//!
+//! The permittivity of a zone is taken at its energy midpoint: with steady power along a zone the
+//! product's energy rises linearly in time there, so this is the state the zone holds on average
+//! over the product's stay.
+//!
+//! # The fixed point
+//!
+//! eta_i depends on the states and the states on the distribution, so the march starts from an
+//! even split and repeats: states, couplings, new split, until no zone's share moves by more than
+//! [`DISTRIBUTION_TOLERANCE`] of the mean share, or [`PASSES_MAX`] passes. When the properties do
+//! not change along the tunnel every eta_i is equal, one pass suffices, every zone gets P_abs / N
+//! and the last zone leaves at the balance's outlet state. The reported permittivities and
+//! couplings are those of the last pass; the states are advanced with the final split. A
+//! permittivity met before (a constant or flat-table product) is not solved again.
+//!
+//! # Per zone, besides the state
+//!
+//! - Peak field: the mean power density in the zone's bed volume, times the layered profile's
+//!   peak-to-mean ratio through the depth (max p over mean p in the product), converted with
+//!   E_rms = sqrt(p / (2 pi f eps0 eps'')) (physics::heating). The depth profile has 41 samples
+//!   per layer (plan::depth_profile), so a standing-wave crest between samples is missed: the
+//!   peak is a lower bound in deep, wet beds at 2450 MHz.
+//! - Runaway: a zone in which the temperature rises is flagged when eps'' at the zone's moisture
+//!   rises with temperature faster than [`RUNAWAY_SLOPE_PER_K`] (relative, per kelvin) across the
+//!   zone's temperature range widened to at least [`RUNAWAY_WINDOW_K`] and out to whole kelvins
+//!   (so the flag does not depend on how finely the tunnel is divided, and neighbouring zones
+//!   share their lookups). Zones that only evaporate are not flagged: their temperature is held
+//!   at T_e while water remains.
+//!
+//! # Validity
+//!
+//! One-dimensional: the bed is taken to cover the belt and to be fed at normal incidence; a narrow
+//! profile in a wide tunnel intercepts less than the slab model says. No conduction between zones
+//! or through the depth, no surface cooling distributed along the tunnel (the allowances are
+//! taken off in proportion), no moisture gradient through the bed.
+
+use super::depth_profile::depth_profile;
+use super::product::Product;
+use super::warnings::Warning;
+use super::Zone;
+use crate::error::InputError;
+use crate::materials::{TEMP_MAX_C, TEMP_MIN_C};
+use crate::physics::heating::field_for_power_density_v_per_m;
+use crate::physics::permittivity::ComplexPermittivity;
+use crate::physics::waves::penetration_depth_m;
+use crate::scenario::Scenario;
+use crate::sizing::energy_balance::EnergyBalance;
+use crate::sizing::tunnel::Tunnel;
+use serde::Serialize;
+use std::cell::RefCell;
+use std::collections::HashMap;
+
+/// Fraction of the power left after a pass that the walls, chokes and openings of a metal tunnel
+/// take before the next pass (common practice, from memory: a few per cent for a closed metal
+/// applicator with chokes). A stated default, not a measurement.
+pub const WALL_LOSS_PER_PASS: f64 = 0.03;
+/// Below this frequency the applicator is taken as capacitive (electrodes), not a cavity, MHz: the
+/// conventional lower edge of the microwave range.
+pub const RF_CAPACITIVE_BELOW_MHZ: f64 = 300.0;
+/// The split has converged when no zone's share moves by more than this fraction of the mean
+/// share between passes (0.1 %: well inside the uncertainty of any permittivity data).
+pub const DISTRIBUTION_TOLERANCE: f64 = 1e-3;
+/// Most passes of the fixed point; lossy loads converge in two or three.
+pub const PASSES_MAX: u32 = 8;
+/// Width of bracket at which the enthalpy inversion stops, K.
+pub const TEMPERATURE_TOLERANCE_K: f64 = 1e-9;
+/// Relative rise of eps'' per kelvin above which a zone is flagged for runaway (1 %/K: eps''
+/// doubling within 70 K; a planning threshold of our own, common practice in spirit, not a
+/// published criterion).
+pub const RUNAWAY_SLOPE_PER_K: f64 = 0.01;
+/// Narrowest temperature window over which a zone's eps'' slope is taken, K.
+pub const RUNAWAY_WINDOW_K: f64 = 1.0;
+/// The cavity model's mean coupling is "well below" the assumed applicator efficiency when it
+/// falls short by more than this (5 percentage points; common practice for a planning margin).
+pub const COUPLING_SHORTFALL: f64 = 0.05;
+
+/// Everything the march needs from the plan.
+#[derive(Debug, Clone, Copy)]
+pub struct MarchInput<'a> {
+    /// The scenario (tunnel, feed, load stack, zones).
+    pub scenario: &'a Scenario,
+    /// The product (permittivity and enthalpy).
+    pub product: &'a Product,
+    /// The energy balance whose absorbed power is distributed.
+    pub energy: &'a EnergyBalance,
+    /// The tunnel layout (length, mean power density).
+    pub tunnel: &'a Tunnel,
+    /// Operating frequency, Hz.
+    pub frequency_hz: f64,
+    /// Moisture in, wet basis.
+    pub inlet_moisture_wb: f64,
+    /// Moisture out, wet basis.
+    pub outlet_moisture_wb: f64,
+    /// Evaporation temperature, degC.
+    pub evaporation_temp_c: f64,
+    /// Latent heat of vaporization there, J/kg.
+    pub latent_heat_j_per_kg: f64,
+    /// The applicator efficiency the scenario assumes (forward to absorbed).
+    pub applicator_efficiency: f64,
+}
+
+/// How the march distributed the power, for the plan's record.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct ZoneModel {
+    /// `cavity` (microwave, geometric series of passes) or `capacitive` (RF, even split).
+    pub applicator: &'static str,
+    /// The model in one sentence, with its source.
+    pub description: &'static str,
+    /// Wall and opening loss per pass used (cavity only).
+    pub wall_loss_per_pass: Option<f64>,
+    /// Mean coupling over the zones: the applicator efficiency the model gives.
+    pub mean_coupling: f64,
+    /// The applicator efficiency the scenario assumes, for comparison.
+    pub assumed_applicator_efficiency: f64,
+    /// Passes of the fixed point made.
+    pub passes: u32,
+    /// Whether the split settled within the tolerance.
+    pub converged: bool,
+    /// The tolerance on the split, as a fraction of the mean share.
+    pub distribution_tolerance: f64,
+    /// Sum of the zones' absorbed power, kW (equals the balance's absorbed power).
+    pub zones_absorbed_sum_kw: f64,
+    /// Temperature leaving the last zone, degC.
+    pub outlet_temp_c: f64,
+    /// Moisture leaving the last zone, wet basis.
+    pub outlet_moisture_wb: f64,
+    /// Zones flagged for runaway (loss factor rising with temperature), by index.
+    pub runaway_zones: Vec<u32>,
+}
+
+/// The zones and the record of how they were computed.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ZoneMarch {
+    /// One entry per zone, inlet first.
+    pub zones: Vec<Zone>,
+    /// The distribution model and its outcome.
+    pub model: ZoneModel,
+}
+
+/// Coupling of a cavity: the fraction of the forward power the load absorbs over all passes,
+/// eta = a / (a + w (1 - a)) for single-pass absorptance `a` and wall loss per pass `w` (both
+/// clamped to 0..1). A lossless load couples nothing (0), also in a lossless cavity.
+pub fn cavity_coupling(single_pass_absorptance: f64, wall_loss_per_pass: f64) -> f64 {
+    let a = clean_fraction(single_pass_absorptance);
+    let w = clean_fraction(wall_loss_per_pass);
+    let denominator = a + w * (1.0 - a);
+    if denominator > 0.0 {
+        (a / denominator).min(1.0)
+    } else {
+        0.0
+    }
+}
+
+fn clean_fraction(value: f64) -> f64 {
+    if value.is_finite() {
+        value.clamp(0.0, 1.0)
+    } else {
+        0.0
+    }
+}
+
+/// Whether a frequency is served by a capacitive (RF) applicator in this model.
+pub fn is_capacitive(frequency_hz: f64) -> bool {
+    frequency_hz < RF_CAPACITIVE_BELOW_MHZ * 1e6
+}
+
+/// Where the product is on the balance's path.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+enum Stage {
+    Heating,
+    Evaporating,
+    HeatingDried,
+}
+
+impl Stage {
+    fn name(self) -> &'static str {
+        match self {
+            Stage::Heating => "heating",
+            Stage::Evaporating => "evaporating",
+            Stage::HeatingDried => "heating_dried",
+        }
+    }
+}
+
+/// The product at one point of the path.
+#[derive(Debug, Clone, Copy, PartialEq)]
+struct Point {
+    temp_c: f64,
+    moisture_wb: f64,
+    /// Water evaporated so far per kg of product in.
+    water_removed_per_kg_in: f64,
+    stage: Stage,
+}
+
+/// The balance's path, parametrised by the net energy e added per kg of product in, J/kg.
+struct Path<'a> {
+    product: &'a Product,
+    drying: bool,
+    inlet_temp_c: f64,
+    inlet_moisture_wb: f64,
+    evaporation_temp_c: f64,
+    outlet_temp_c: f64,
+    outlet_moisture_wb: f64,
+    latent_heat_j_per_kg: f64,
+    /// H(T_in, x_in).
+    inlet_enthalpy: f64,
+    /// H(T_e, x_out), per kg of dried product.
+    dried_enthalpy_at_evaporation: f64,
+    /// Stage 1 per kg in (may be negative: a product entering above T_e flashes).
+    heat_one: f64,
+    /// Stage 2 per kg in.
+    evaporate: f64,
+    /// Stage 3 per kg in (0 or more).
+    heat_three: f64,
+    /// Product out per product in.
+    out_per_in: f64,
+    /// Water evaporated per kg in over the whole path.
+    water_total: f64,
+}
+
+impl<'a> Path<'a> {
+    fn new(input: &MarchInput<'a>) -> Result<Self, InputError> {
+        let scenario = input.scenario;
+        let product = input.product;
+        let (x_in, x_out) = (input.inlet_moisture_wb, input.outlet_moisture_wb);
+        // The balance's own test for drying.
+        let drying = x_out < x_in;
+        let enthalpy = |temp_c: f64, moisture: f64| product.material.enthalpy_j_per_kg(temp_c, Some(moisture));
+        let (t_in, t_out, t_e) = (scenario.inlet.temp_c, scenario.outlet.temp_c, input.evaporation_temp_c);
+        let inlet_enthalpy = enthalpy(t_in, x_in)?;
+        let mut path = Path {
+            product,
+            drying,
+            inlet_temp_c: t_in,
+            inlet_moisture_wb: x_in,
+            evaporation_temp_c: t_e,
+            outlet_temp_c: t_out,
+            outlet_moisture_wb: if drying { x_out } else { x_in },
+            latent_heat_j_per_kg: input.latent_heat_j_per_kg,
+            inlet_enthalpy,
+            dried_enthalpy_at_evaporation: 0.0,
+            heat_one: 0.0,
+            evaporate: 0.0,
+            heat_three: 0.0,
+            out_per_in: 1.0,
+            water_total: 0.0,
+        };
+        if drying {
+            path.out_per_in = (1.0 - x_in) / (1.0 - x_out);
+            path.water_total = 1.0 - path.out_per_in;
+            path.heat_one = enthalpy(t_e, x_in)? - inlet_enthalpy;
+            path.evaporate = path.water_total * input.latent_heat_j_per_kg;
+            path.dried_enthalpy_at_evaporation = enthalpy(t_e, x_out)?;
+            path.heat_three = path.out_per_in * (enthalpy(t_out, x_out)? - path.dried_enthalpy_at_evaporation).max(0.0);
+        } else {
+            path.heat_one = enthalpy(t_out, x_in)? - inlet_enthalpy;
+        }
+        Ok(path)
+    }
+
+    /// Net energy per kg in over the whole path (the balance's process heat per kg), J/kg.
+    fn total(&self) -> f64 {
+        let total = self.heat_one + self.evaporate + self.heat_three;
+        if total.is_finite() {
+            total.max(0.0)
+        } else {
+            0.0
+        }
+    }
+
+    /// The product after `energy` J per kg in.
+    fn at(&self, energy: f64) -> Result<Point, InputError> {
+        let energy = energy.clamp(0.0, self.total());
+        if !self.drying {
+            let temp_c = self.temperature_at(
+                self.inlet_moisture_wb,
+                self.inlet_enthalpy + energy,
+                (self.inlet_temp_c, self.inlet_enthalpy),
+                (self.outlet_temp_c, self.inlet_enthalpy + self.heat_one),
+            )?;
+            return Ok(Point {
+                temp_c,
+                moisture_wb: self.inlet_moisture_wb,
+                water_removed_per_kg_in: 0.0,
+                stage: Stage::Heating,
+            });
+        }
+        if self.heat_one > 0.0 && energy < self.heat_one {
+            let temp_c = self.temperature_at(
+                self.inlet_moisture_wb,
+                self.inlet_enthalpy + energy,
+                (self.inlet_temp_c, self.inlet_enthalpy),
+                (self.evaporation_temp_c, self.inlet_enthalpy + self.heat_one),
+            )?;
+            return Ok(Point {
+                temp_c,
+                moisture_wb: self.inlet_moisture_wb,
+                water_removed_per_kg_in: 0.0,
+                stage: Stage::Heating,
+            });
+        }
+        // From here on energy - heat_one >= 0, also when heat_one < 0 (the flash at the inlet).
+        let after_heating = energy - self.heat_one;
+        if after_heating < self.evaporate || self.heat_three <= 0.0 {
+            let water = (after_heating / self.latent_heat_j_per_kg).clamp(0.0, self.water_total);
+            let moisture = ((self.inlet_moisture_wb - water) / (1.0 - water)).max(self.outlet_moisture_wb);
+            return Ok(Point {
+                temp_c: self.evaporation_temp_c,
+                moisture_wb: moisture,
+                water_removed_per_kg_in: water,
+                stage: Stage::Evaporating,
+            });
+        }
+        let dried = (after_heating - self.evaporate).min(self.heat_three);
+        let dried_enthalpy = self.dried_enthalpy_at_evaporation;
+        let temp_c = self.temperature_at(
+            self.outlet_moisture_wb,
+            dried_enthalpy + dried / self.out_per_in,
+            (self.evaporation_temp_c, dried_enthalpy),
+            (self.outlet_temp_c, dried_enthalpy + self.heat_three / self.out_per_in),
+        )?;
+        Ok(Point {
+            temp_c,
+            moisture_wb: self.outlet_moisture_wb,
+            water_removed_per_kg_in: self.water_total,
+            stage: Stage::HeatingDried,
+        })
+    }
+
+    /// The temperature in a stage from `start` to `end` (temperature, enthalpy at it: the stage's
+    /// ends are known, so the search spends no evaluations on them).
+    fn temperature_at(
+        &self,
+        moisture_wb: f64,
+        target_j_per_kg: f64,
+        start: (f64, f64),
+        end: (f64, f64),
+    ) -> Result<f64, InputError> {
+        temperature_at_enthalpy(
+            |temp_c| self.product.material.enthalpy_j_per_kg(temp_c, Some(moisture_wb)),
+            target_j_per_kg,
+            start,
+            end,
+        )
+    }
+}
+
+/// The temperature between `start.0` and `end.0` at which the rising function `enthalpy` reaches
+/// `target`, given its values `start.1` and `end.1` at the two ends; a target outside them gives
+/// the nearer end (and a stage of no width its start). Illinois regula falsi: each step keeps a
+/// bracket, so it cannot fail to converge, and the stale end's value is halved so the bracket
+/// shrinks from both sides.
+fn temperature_at_enthalpy(
+    enthalpy: impl Fn(f64) -> Result<f64, InputError>,
+    target: f64,
+    start: (f64, f64),
+    end: (f64, f64),
+) -> Result<f64, InputError> {
+    let ((mut low, h_low), (mut high, h_high)) = (start, end);
+    let mut f_low = h_low - target;
+    if high <= low || high.is_nan() || f_low >= 0.0 {
+        return Ok(low);
+    }
+    let mut f_high = h_high - target;
+    if f_high <= 0.0 {
+        return Ok(high);
+    }
+    // 1e-9 K of a bracket or 1e-6 J/kg of enthalpy (about 2.5e-10 K of water), whichever first.
+    const ENTHALPY_TOLERANCE_J_PER_KG: f64 = 1e-6;
+    let mut side = 0_i8;
+    let mut estimate = 0.5 * (low + high);
+    for _ in 0..200 {
+        if high - low <= TEMPERATURE_TOLERANCE_K {
+            break;
+        }
+        let mut next = high - f_high * (high - low) / (f_high - f_low);
+        if !(next > low && next < high) {
+            next = 0.5 * (low + high);
+        }
+        estimate = next;
+        let f_next = enthalpy(next)? - target;
+        if f_next.abs() <= ENTHALPY_TOLERANCE_J_PER_KG {
+            break;
+        }
+        if f_next < 0.0 {
+            low = next;
+            f_low = f_next;
+            if side == -1 {
+                f_high *= 0.5;
+            }
+            side = -1;
+        } else {
+            high = next;
+            f_high = f_next;
+            if side == 1 {
+                f_low *= 0.5;
+            }
+            side = 1;
+        }
+        estimate = 0.5 * (low + high);
+    }
+    Ok(estimate)
+}
+
+/// The permittivity and coupling of one zone at its mean state.
+#[derive(Debug, Clone, Copy)]
+struct Optics {
+    eps: ComplexPermittivity,
+    coupling: f64,
+    single_pass_absorptance: Option<f64>,
+    /// Peak over mean power density through the bed; `None` for a lossless product.
+    peak_to_mean: Option<f64>,
+}
+
+struct Marcher<'a> {
+    input: MarchInput<'a>,
+    path: Path<'a>,
+    capacitive: bool,
+    /// Layered solutions by permittivity: a product whose permittivity does not change along the
+    /// tunnel (a constant or a flat table) is solved once, not once per zone and pass.
+    optics_by_eps: RefCell<HashMap<(u64, u64), Optics>>,
+    /// eps'' on the whole-kelvin grid of the runaway windows, by (moisture, temperature).
+    loss_on_grid: RefCell<HashMap<(u64, i32), f64>>,
+}
+
+/// Boundary states (N + 1, inlet first) and energy-midpoint states (N) for a split.
+struct States {
+    boundaries: Vec<Point>,
+    midpoints: Vec<Point>,
+}
+
+impl Marcher<'_> {
+    fn states(&self, shares: &[f64]) -> Result<States, InputError> {
+        let total = self.path.total();
+        let mut boundaries = Vec::with_capacity(shares.len() + 1);
+        let mut midpoints = Vec::with_capacity(shares.len());
+        boundaries.push(self.path.at(0.0)?);
+        let mut cumulative = 0.0;
+        for (index, share) in shares.iter().enumerate() {
+            let before = cumulative;
+            cumulative += share * total;
+            // The last boundary is the end of the path exactly, whatever the rounding of the sum.
+            if index + 1 == shares.len() {
+                cumulative = total;
+            }
+            midpoints.push(self.path.at(0.5 * (before + cumulative))?);
+            boundaries.push(self.path.at(cumulative)?);
+        }
+        Ok(States { boundaries, midpoints })
+    }
+
+    fn optics(&self, point: &Point) -> Result<Optics, InputError> {
+        let input = &self.input;
+        let lookup = input.product.permittivity(input.frequency_hz, point.temp_c, point.moisture_wb)?;
+        let eps = lookup.eps;
+        let key = (eps.eps_real.to_bits(), eps.eps_imag.to_bits());
+        if let Some(optics) = self.optics_by_eps.borrow().get(&key) {
+            return Ok(*optics);
+        }
+        let optics = self.optics_uncached(eps)?;
+        self.optics_by_eps.borrow_mut().insert(key, optics);
+        Ok(optics)
+    }
+
+    fn optics_uncached(&self, eps: ComplexPermittivity) -> Result<Optics, InputError> {
+        let input = &self.input;
+        if self.capacitive {
+            return Ok(Optics {
+                eps,
+                coupling: input.applicator_efficiency,
+                single_pass_absorptance: None,
+                peak_to_mean: (eps.eps_imag > 0.0).then_some(1.0),
+            });
+        }
+        let solution = depth_profile(input.scenario, input.frequency_hz, eps)?;
+        let absorptance = clean_fraction(solution.product_absorptance);
+        let bed_m = input.scenario.tunnel.bed_depth_m;
+        // Mean of p / S_inc over the product is its absorptance over its thickness.
+        let peak_to_mean = solution
+            .uniformity
+            .as_ref()
+            .filter(|_| absorptance > 0.0)
+            .map(|u| (u.max_power_density_per_m * bed_m / absorptance).max(1.0))
+            .filter(|ratio| ratio.is_finite());
+        Ok(Optics {
+            eps,
+            coupling: cavity_coupling(absorptance, WALL_LOSS_PER_PASS),
+            single_pass_absorptance: Some(absorptance),
+            peak_to_mean,
+        })
+    }
+
+    /// Whether eps'' rises faster than the runaway threshold across the zone. The window is the
+    /// zone's temperature range widened to at least [`RUNAWAY_WINDOW_K`] and out to whole kelvins,
+    /// so that neighbouring zones share their lookups (a fine division costs no more lookups than
+    /// the kelvins the product crosses).
+    fn runaway(&self, entry: &Point, exit: &Point, mid: &Point) -> Result<bool, InputError> {
+        let span = exit.temp_c - entry.temp_c;
+        if span.is_nan() || span <= TEMPERATURE_TOLERANCE_K {
+            return Ok(false);
+        }
+        let centre = 0.5 * (entry.temp_c + exit.temp_c);
+        let half = 0.5 * RUNAWAY_WINDOW_K;
+        let low = (entry.temp_c.min(centre - half)).floor().max(TEMP_MIN_C);
+        let high = (exit.temp_c.max(centre + half)).ceil().min(TEMP_MAX_C);
+        if high <= low || high.is_nan() {
+            return Ok(false);
+        }
+        let (loss_low, loss_high) = (self.loss_at(low, mid.moisture_wb)?, self.loss_at(high, mid.moisture_wb)?);
+        if loss_high <= loss_low {
+            return Ok(false);
+        }
+        if loss_low <= 0.0 {
+            return Ok(true);
+        }
+        Ok((loss_high - loss_low) / (loss_low * (high - low)) > RUNAWAY_SLOPE_PER_K)
+    }
+
+    /// eps'' at a whole-kelvin temperature and a moisture, looked up once.
+    fn loss_at(&self, temp_c: f64, moisture_wb: f64) -> Result<f64, InputError> {
+        // temp_c is a whole number within -60..300 here, so the cast is exact.
+        let key = (moisture_wb.to_bits(), temp_c as i32);
+        if let Some(loss) = self.loss_on_grid.borrow().get(&key) {
+            return Ok(*loss);
+        }
+        let input = &self.input;
+        let loss = input.product.permittivity(input.frequency_hz, temp_c, moisture_wb)?.eps.eps_imag;
+        self.loss_on_grid.borrow_mut().insert(key, loss);
+        Ok(loss)
+    }
+}
+
+/// March along the tunnel. See the module documentation for the model.
+pub fn march(input: &MarchInput) -> Result<ZoneMarch, InputError> {
+    let count = input.scenario.tunnel.zones.clamp(1, 100_000) as usize;
+    let marcher = Marcher {
+        input: *input,
+        path: Path::new(input)?,
+        capacitive: is_capacitive(input.frequency_hz),
+        optics_by_eps: RefCell::new(HashMap::new()),
+        loss_on_grid: RefCell::new(HashMap::new()),
+    };
+    let absorbed_kw = input.energy.absorbed_kw;
+    let even = 1.0 / count as f64;
+    let mut shares = vec![even; count];
+    let mut passes = 0;
+    let mut converged = false;
+    let mut optics: Vec<Optics>;
+    // The states always belong to `shares`; the optics to the states of the pass before.
+    let mut states = marcher.states(&shares)?;
+    loop {
+        passes += 1;
+        optics = states.midpoints.iter().map(|point| marcher.optics(point)).collect::<Result<_, _>>()?;
+        if marcher.capacitive {
+            // The split does not depend on the state: one pass is the answer.
+            converged = true;
+            break;
+        }
+        let coupling_sum: f64 = optics.iter().map(|o| o.coupling).sum();
+        let next: Vec<f64> = if coupling_sum > 0.0 && coupling_sum.is_finite() {
+            optics.iter().map(|o| o.coupling / coupling_sum).collect()
+        } else {
+            // A lossless product couples nowhere: keep the even split (the plan warns).
+            vec![even; count]
+        };
+        let largest_move = next.iter().zip(&shares).map(|(new, old)| (new - old).abs()).fold(0.0, f64::max) / even;
+        if next != shares {
+            shares = next;
+            states = marcher.states(&shares)?;
+        }
+        if largest_move <= DISTRIBUTION_TOLERANCE {
+            converged = true;
+            break;
+        }
+        if passes >= PASSES_MAX {
+            break;
+        }
+    }
+    let zones = build_zones(&marcher, &states, &optics, &shares, absorbed_kw)?;
+    let mean_coupling = if marcher.capacitive {
+        input.applicator_efficiency
+    } else {
+        optics.iter().map(|o| o.coupling).sum::<f64>() / count as f64
+    };
+    let last = states.boundaries.last().copied().unwrap_or(Point {
+        temp_c: input.scenario.outlet.temp_c,
+        moisture_wb: input.outlet_moisture_wb,
+        water_removed_per_kg_in: 0.0,
+        stage: Stage::Heating,
+    });
+    let model = ZoneModel {
+        applicator: if marcher.capacitive { "capacitive" } else { "cavity" },
+        description: if marcher.capacitive {
+            "RF electrodes, not a cavity: every zone gets the same share of the absorbed power and the scenario's applicator efficiency as its coupling; the field is taken as even through the bed"
+        } else {
+            "equal forward power per zone; each zone couples a / (a + w (1 - a)) of it (geometric series of passes, loaded-Q form of applicator efficiency, Metaxas & Meredith 1983 ch. 5, from memory), a the bed's single-pass absorptance from the layered solution at the zone's state, w the wall and opening loss per pass; the zones share the balance's absorbed power in proportion"
+        },
+        wall_loss_per_pass: (!marcher.capacitive).then_some(WALL_LOSS_PER_PASS),
+        mean_coupling,
+        assumed_applicator_efficiency: input.applicator_efficiency,
+        passes,
+        converged,
+        distribution_tolerance: DISTRIBUTION_TOLERANCE,
+        zones_absorbed_sum_kw: zones.iter().map(|z| z.absorbed_kw).sum(),
+        outlet_temp_c: last.temp_c,
+        outlet_moisture_wb: last.moisture_wb,
+        runaway_zones: zones.iter().filter(|z| z.runaway).map(|z| z.index).collect(),
+    };
+    Ok(ZoneMarch { zones, model })
+}
+
+fn build_zones(
+    marcher: &Marcher,
+    states: &States,
+    optics: &[Optics],
+    shares: &[f64],
+    absorbed_kw: f64,
+) -> Result<Vec<Zone>, InputError> {
+    let input = &marcher.input;
+    let count = shares.len();
+    let length_m = input.tunnel.tunnel_length_m;
+    let zone_volume_m3 =
+        input.scenario.tunnel.belt_width_m * input.scenario.tunnel.bed_depth_m * length_m / count as f64;
+    let throughput = input.scenario.throughput_kg_per_h;
+    let mut zones = Vec::with_capacity(count);
+    for index in 0..count {
+        let (entry, exit, mid) = (&states.boundaries[index], &states.boundaries[index + 1], &states.midpoints[index]);
+        let zone_optics = &optics[index];
+        // Water a product entering above T_e flashes off at the inlet counts in the first zone.
+        let water_before = if index == 0 { 0.0 } else { entry.water_removed_per_kg_in };
+        let zone_kw = absorbed_kw * shares[index];
+        let power_density_w_per_m3 = if zone_volume_m3 > 0.0 { zone_kw * 1000.0 / zone_volume_m3 } else { 0.0 };
+        let peak_field_v_per_m = zone_optics.peak_to_mean.and_then(|ratio| {
+            field_for_power_density_v_per_m(
+                input.frequency_hz,
+                zone_optics.eps.eps_imag,
+                power_density_w_per_m3 * ratio,
+            )
+        });
+        zones.push(Zone {
+            index: index as u32 + 1,
+            start_m: length_m * index as f64 / count as f64,
+            end_m: length_m * (index + 1) as f64 / count as f64,
+            temp_c: exit.temp_c,
+            moisture_wb: exit.moisture_wb,
+            frozen_fraction: input.product.material.frozen_fraction_at(exit.temp_c, Some(exit.moisture_wb))?,
+            eps_real: zone_optics.eps.eps_real,
+            eps_imag: zone_optics.eps.eps_imag,
+            absorbed_kw: zone_kw,
+            stage: mid.stage.name(),
+            coupling: zone_optics.coupling,
+            single_pass_absorptance: zone_optics.single_pass_absorptance,
+            penetration_depth_m: penetration_depth_m(input.frequency_hz, zone_optics.eps),
+            mean_power_density_kw_per_m3: power_density_w_per_m3 / 1000.0,
+            peak_field_v_per_m,
+            runaway: marcher.runaway(entry, exit, mid)?,
+            water_removed_kg_per_h: (throughput * (exit.water_removed_per_kg_in - water_before)).max(0.0),
+        });
+    }
+    Ok(zones)
+}
+
+/// Zone indices as compact ranges: `1-4, 7, 9-12`.
+fn index_ranges(indices: &[u32]) -> String {
+    let mut parts: Vec<String> = Vec::new();
+    let mut start: Option<(u32, u32)> = None;
+    for &index in indices {
+        start = match start {
+            Some((first, last)) if index == last + 1 => Some((first, index)),
+            Some((first, last)) => {
+                parts.push(range_text(first, last));
+                Some((index, index))
+            }
+            None => Some((index, index)),
+        };
+    }
+    if let Some((first, last)) = start {
+        parts.push(range_text(first, last));
+    }
+    parts.join(", ")
+}
+
+fn range_text(first: u32, last: u32) -> String {
+    if first == last {
+        format!("{first}")
+    } else {
+        format!("{first}-{last}")
+    }
+}
+
+/// The sentence naming the zones where eps'' rises with temperature, if any.
+pub fn runaway_zones_sentence(zones: &[Zone], model: &ZoneModel) -> Option<String> {
+    let first = zones.iter().find(|z| z.runaway)?;
+    let last = zones.iter().rev().find(|z| z.runaway)?;
+    Some(format!(
+        "Along the tunnel (zone march), zone{} {} of {} ({:.2} to {:.2} m) see the loss factor rise by more than {:.0} %/K with temperature: watch the product there for hot spots.",
+        if model.runaway_zones.len() == 1 { "" } else { "s" },
+        index_ranges(&model.runaway_zones),
+        zones.len(),
+        first.start_m,
+        last.end_m,
+        RUNAWAY_SLOPE_PER_K * 100.0,
+    ))
+}
+
+/// `coupling_below_assumed`: the cavity model couples well below the efficiency the plan assumed.
+pub fn coupling_warning(model: &ZoneModel) -> Option<Warning> {
+    if model.applicator != "cavity" || model.mean_coupling >= model.assumed_applicator_efficiency - COUPLING_SHORTFALL {
+        return None;
+    }
+    Some(Warning::new(
+        "coupling_below_assumed",
+        format!(
+            "Over the zones the bed absorbs on average {:.0} % of the forward power (cavity model: single-pass absorptance of the layered bed, {:.0} % lost to walls and openings per pass), well below the {:.0} % applicator efficiency assumed: the forward power and generator count are likely short. Lower the applicator efficiency, deepen the bed or choose a lossier band.",
+            model.mean_coupling * 100.0,
+            WALL_LOSS_PER_PASS * 100.0,
+            model.assumed_applicator_efficiency * 100.0
+        ),
+    ))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::sizing::energy_balance::{balance, BalanceInput, LossAllowances};
+    use crate::sizing::tunnel::{lay_out, ResidenceRule, TunnelInput};
+    use approx::assert_relative_eq;
+
+    /// cp 2000 J/(kg K) whatever the moisture (a user-defined constant), so every stage is
+    /// linear and the path can be worked by hand.
+    fn constant_product() -> Product {
+        let spec: crate::materials::custom::CustomMaterialSpec = serde_json::from_str(
+            r#"{"name": "by hand", "density_kg_per_m3": 800, "specific_heat_j_per_kg_k": 2000,
+                "dielectric": {"model": "constant", "eps_real": 10, "eps_imag": 2}}"#,
+        )
+        .unwrap();
+        Product {
+            material: crate::materials::custom::custom_material(&spec).unwrap(),
+            salt_pct: None,
+            loss_factor_multiplier: 1.0,
+        }
+    }
+
+    fn drying_scenario(inlet_c: f64, outlet_c: f64) -> Scenario {
+        crate::scenario::parse_scenario(&format!(
+            r#"{{"schema": 1, "process": "drying", "product": {{"library": "paper"}}, "throughput_kg_per_h": 360,
+                "inlet": {{"temp_c": {inlet_c}, "moisture_wb": 0.5}}, "outlet": {{"temp_c": {outlet_c}, "moisture_wb": 0.2}},
+                "frequency_mhz": 2450, "tunnel": {{"belt_width_m": 1, "bed_depth_m": 0.02, "residence": {{"tunnel_length_m": 2}}, "zones": 4}}}}"#
+        ))
+        .unwrap()
+    }
+
+    /// Drying by hand with h_fg = 2.257e6 J/kg and T_e = 100 degC.
+    fn with_path(inlet_c: f64, outlet_c: f64, check: impl Fn(&Path)) {
+        let product = constant_product();
+        let scenario = drying_scenario(inlet_c, outlet_c);
+        let no_losses = LossAllowances { surface_pct: 0.0, belt_pct: 0.0, vapour_pct: 0.0 };
+        let balance_input = BalanceInput {
+            throughput_kg_per_h: 360.0,
+            inlet_temp_c: inlet_c,
+            outlet_temp_c: outlet_c,
+            inlet_moisture_wb: 0.5,
+            outlet_moisture_wb: 0.2,
+            evaporation_temp_c: 100.0,
+            latent_heat_vaporization_j_per_kg: 2.257e6,
+            losses: no_losses,
+        };
+        let energy = balance(&product, &balance_input).unwrap();
+        let geometry = TunnelInput {
+            belt_width_m: 1.0,
+            bed_depth_m: 0.02,
+            bulk_density_kg_per_m3: 800.0,
+            residence: ResidenceRule::TunnelLengthM(2.0),
+        };
+        let tunnel = lay_out(&geometry, 360.0, energy.absorbed_kw, 1.0);
+        let input = MarchInput {
+            scenario: &scenario,
+            product: &product,
+            energy: &energy,
+            tunnel: &tunnel,
+            frequency_hz: 2.45e9,
+            inlet_moisture_wb: 0.5,
+            outlet_moisture_wb: 0.2,
+            evaporation_temp_c: 100.0,
+            latent_heat_j_per_kg: 2.257e6,
+            applicator_efficiency: 0.85,
+        };
+        let path = Path::new(&input).unwrap();
+        // The path's total is the balance's process heat per kg in (exact identity).
+        assert_relative_eq!(path.total(), energy.process_kw * 3.6e6 / 360.0, max_relative = 1e-12);
+        check(&path);
+    }
+
+    #[test]
+    fn the_drying_path_by_hand() {
+        with_path(20.0, 120.0, |path| {
+            // Stage 1: 2000 x 80 = 160 kJ/kg; water 1 - 0.5/0.8 = 0.375 kg/kg in, 846.375 kJ/kg;
+            // stage 3: 0.625 x 2000 x 20 = 25 kJ/kg (by hand).
+            assert_relative_eq!(path.heat_one, 160_000.0, max_relative = 1e-12);
+            assert_relative_eq!(path.evaporate, 846_375.0, max_relative = 1e-12);
+            assert_relative_eq!(path.heat_three, 25_000.0, max_relative = 1e-12);
+            let halfway_heating = path.at(80_000.0).unwrap();
+            assert_eq!(halfway_heating.stage, Stage::Heating);
+            assert_relative_eq!(halfway_heating.temp_c, 60.0, epsilon = 1e-9);
+            let halfway_evaporating = path.at(160_000.0 + 846_375.0 / 2.0).unwrap();
+            assert_eq!(halfway_evaporating.stage, Stage::Evaporating);
+            assert_eq!(halfway_evaporating.temp_c, 100.0);
+            assert_relative_eq!(halfway_evaporating.water_removed_per_kg_in, 0.1875, max_relative = 1e-12);
+            assert_relative_eq!(halfway_evaporating.moisture_wb, 0.3125 / 0.8125, max_relative = 1e-12);
+            let dried = path.at(path.total() - 12_500.0).unwrap();
+            assert_eq!(dried.stage, Stage::HeatingDried);
+            // H = 2000 x 100 + 12500 / 0.625 per kg out -> 110 degC.
+            assert_relative_eq!(dried.temp_c, 110.0, epsilon = 1e-9);
+            let end = path.at(path.total()).unwrap();
+            assert_relative_eq!(end.temp_c, 120.0, epsilon = 1e-9);
+            assert_eq!(end.moisture_wb, 0.2);
+        });
+    }
+
+    #[test]
+    fn a_hot_inlet_flashes_and_a_cool_outlet_stops_at_the_boiling_point() {
+        with_path(110.0, 90.0, |path| {
+            // Stage 1 is negative (-20 kJ/kg), stage 3 is not counted (T_out < T_e).
+            assert_relative_eq!(path.heat_one, -20_000.0, max_relative = 1e-12);
+            assert_eq!(path.heat_three, 0.0);
+            let inlet = path.at(0.0).unwrap();
+            assert_eq!(inlet.stage, Stage::Evaporating);
+            assert_eq!(inlet.temp_c, 100.0);
+            assert_relative_eq!(inlet.water_removed_per_kg_in, 20_000.0 / 2.257e6, max_relative = 1e-12);
+            let end = path.at(path.total()).unwrap();
+            assert_eq!(end.temp_c, 100.0);
+            assert_relative_eq!(end.moisture_wb, 0.2, max_relative = 1e-12);
+        });
+    }
+
+    #[test]
+    fn cavity_coupling_limits_and_series() {
+        // Exact identities: a perfect absorber takes everything; a lossless cavity lets any lossy
+        // load take everything; a lossless load takes nothing.
+        assert_eq!(cavity_coupling(1.0, 0.03), 1.0);
+        assert_eq!(cavity_coupling(0.2, 0.0), 1.0);
+        assert_eq!(cavity_coupling(0.0, 0.03), 0.0);
+        assert_eq!(cavity_coupling(0.0, 0.0), 0.0);
+        assert_eq!(cavity_coupling(f64::NAN, 0.03), 0.0);
+        // The closed form is the sum of the passes (by hand: a sum_k [(1 - a)(1 - w)]^k).
+        let (a, w): (f64, f64) = (0.3, 0.05);
+        let series: f64 = (0..2000).map(|k| a * ((1.0 - a) * (1.0 - w)).powi(k)).sum();
+        assert_relative_eq!(cavity_coupling(a, w), series, max_relative = 1e-12);
+        // By hand: a = 0.5, w = 0.03 -> 0.5 / 0.515 = 0.970874.
+        assert_relative_eq!(cavity_coupling(0.5, 0.03), 0.970_873_786, max_relative = 1e-9);
+    }
+
+    #[test]
+    fn inversion_of_a_linear_and_a_steep_enthalpy() {
+        // Linear: H = 4000 T -> T = H / 4000 exactly (exact identity).
+        let linear = |t: f64| Ok(4000.0 * t);
+        let t = temperature_at_enthalpy(linear, 4000.0 * 37.25, (0.0, 0.0), (100.0, 4e5)).unwrap();
+        assert_relative_eq!(t, 37.25, epsilon = 1e-9);
+        // A steep step like thawing: H = 2000 T + 3e5 / (1 + e^{-(T + 2)/0.2}).
+        let h = |t: f64| 2000.0 * t + 3e5 / (1.0 + (-(t + 2.0) / 0.2).exp());
+        let target = h(-2.3);
+        let t = temperature_at_enthalpy(|t| Ok(h(t)), target, (-20.0, h(-20.0)), (10.0, h(10.0))).unwrap();
+        assert_relative_eq!(t, -2.3, epsilon = 1e-7);
+        // Outside the bracket: the nearer end; a stage of no width: its start.
+        let identity = |t: f64| Ok(t);
+        assert_eq!(temperature_at_enthalpy(identity, -5.0, (0.0, 0.0), (1.0, 1.0)).unwrap(), 0.0);
+        assert_eq!(temperature_at_enthalpy(identity, 5.0, (0.0, 0.0), (1.0, 1.0)).unwrap(), 1.0);
+        assert_eq!(temperature_at_enthalpy(identity, 0.5, (1.0, 1.0), (1.0, 1.0)).unwrap(), 1.0);
+    }
+
+    #[test]
+    fn zone_ranges_read_compactly() {
+        assert_eq!(index_ranges(&[1, 2, 3, 4, 7, 9, 10]), "1-4, 7, 9-10");
+        assert_eq!(index_ranges(&[5]), "5");
+        assert_eq!(index_ranges(&[]), "");
+    }
+
+    #[test]
+    fn rf_is_capacitive_and_microwave_is_not() {
+        assert!(is_capacitive(27.12e6));
+        assert!(is_capacitive(40.68e6));
+        assert!(!is_capacitive(915e6));
+        assert!(!is_capacitive(2450e6));
+    }
+}
