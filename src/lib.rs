@@ -7,6 +7,7 @@
 #![deny(clippy::unwrap_used)]
 
 pub mod error;
+pub mod export;
 pub mod finite;
 pub mod materials;
 pub mod physics;

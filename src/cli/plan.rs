@@ -1,4 +1,5 @@
-//! `doubleprime plan FILE.json [--format json|text] [--generators CATALOGUE.json]`.
+//! `doubleprime plan FILE.json [--format json|text|csv] [--generators CATALOGUE.json]`; `csv` prints
+//! the zone profiles (units in the headers).
 
 use super::args::{Args, CliError};
 use super::scenario_file;
@@ -13,7 +14,8 @@ pub fn run(rest: &[String]) -> Result<String, CliError> {
     match args.text("format").unwrap_or("json") {
         "json" => Ok(super::to_json(&plan)),
         "text" => Ok(text_report(&plan)),
-        other => Err(CliError::Usage(format!("--format = {other:?} is not accepted: valid is json or text"))),
+        "csv" => Ok(doubleprime::export::zones_csv(&plan).trim_end().to_string()),
+        other => Err(CliError::Usage(format!("--format = {other:?} is not accepted: valid is json, text or csv"))),
     }
 }
 

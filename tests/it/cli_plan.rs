@@ -93,3 +93,19 @@ fn refusals_are_one_line_naming_the_problem() {
     let line = run_refused(&["compare"]);
     assert!(line.contains("scenario file"), "{line}");
 }
+
+#[test]
+fn csv_carries_one_row_per_zone_with_units_in_the_headers() {
+    let output = run(&["plan", &demo("drying-sand-cores.json"), "--format", "csv"]);
+    assert!(output.status.success());
+    let text = String::from_utf8_lossy(&output.stdout).to_string();
+    let lines: Vec<&str> = text.lines().collect();
+    assert!(lines[0].contains("absorbed power [kW]") && lines[0].contains("temperature out [degC]"), "{}", lines[0]);
+    let plan = run_json(&["plan", &demo("drying-sand-cores.json")]);
+    let zones = plan["zones"].as_array().unwrap();
+    assert_eq!(lines.len(), zones.len() + 1);
+    // The absorbed kW column sums to the plan's absorbed power (the zones distribute the balance).
+    let column = lines[0].split(',').position(|h| h == "absorbed power [kW]").unwrap();
+    let sum: f64 = lines[1..].iter().map(|row| row.split(',').nth(column).unwrap().parse::<f64>().unwrap()).sum();
+    assert!((sum - number(&plan, "absorbed_power_kw")).abs() < 1e-6 * sum);
+}
