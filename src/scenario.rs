@@ -4,6 +4,7 @@
 //! from it. The JSON form is documented field by field in `demo-loads/README.md`.
 
 pub mod document;
+pub mod link;
 pub mod validation;
 
 pub use document::*;

@@ -79,3 +79,15 @@ fn every_demo_load_compares_across_bands() {
     assert!(output.status.success());
     assert!(String::from_utf8_lossy(&output.stdout).contains("generators"));
 }
+
+#[test]
+fn every_demo_load_survives_a_link_round_trip() {
+    use doubleprime::scenario::link::{scenario_from_fragment, scenario_to_fragment};
+    for (name, _) in EXPECTED {
+        let text = std::fs::read_to_string(demo_path(name)).unwrap();
+        let scenario = doubleprime::scenario::parse_scenario(&text).unwrap();
+        let fragment = scenario_to_fragment(&scenario);
+        assert!(fragment.chars().all(|c| c.is_ascii_alphanumeric() || "-_.".contains(c)), "URL-safe: {name}");
+        assert_eq!(scenario_from_fragment(&format!("#{fragment}")).unwrap(), scenario, "{name}");
+    }
+}
