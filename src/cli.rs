@@ -10,12 +10,13 @@ mod material;
 mod materials;
 mod plan;
 mod scenario_file;
+mod search;
 
 use args::CliError;
 
 /// The one-line usage summary, shown for an unknown or missing subcommand.
 const USAGE: &str =
-    "usage: doubleprime <dielectric|bands|layers|plan|compare|material|materials> [options]; see README.md";
+    "usage: doubleprime <dielectric|bands|layers|plan|compare|search|material|materials> [options]; see README.md";
 
 /// Run one command line (without the program name) and return what to print on stdout.
 pub fn run(args: &[String]) -> Result<String, CliError> {
@@ -30,6 +31,7 @@ pub fn run(args: &[String]) -> Result<String, CliError> {
         "layers" => layers::run(rest),
         "plan" => plan::run(rest),
         "compare" => compare::run(rest),
+        "search" => search::run(rest),
         "--help" | "-h" | "help" => Ok(USAGE.to_string()),
         other => Err(CliError::Usage(format!("unknown subcommand `{other}`; {USAGE}"))),
     }

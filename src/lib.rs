@@ -14,4 +14,5 @@ pub mod physics;
 pub mod plan;
 pub mod safety;
 pub mod scenario;
+pub mod search;
 pub mod sizing;

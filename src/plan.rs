@@ -239,10 +239,27 @@ pub struct Plan {
 
 /// Plan a scenario: every problem at once, or the plan.
 pub fn plan(scenario: &Scenario) -> Result<Plan, Vec<InputError>> {
+    plan_to_depth(scenario, &PlanDepth::FULL)
+}
+
+/// A plan without its sensitivity study, for callers that read none of it (the band comparison's
+/// rows): the same validation, numbers, warnings and finiteness check as [`plan`].
+pub(crate) fn plan_without_sensitivity(scenario: &Scenario) -> Result<Plan, Vec<InputError>> {
+    plan_to_depth(scenario, &PlanDepth::NO_SENSITIVITY)
+}
+
+/// The plan core for the design search (crate::search), on a scenario and product it has already
+/// validated: no warnings, no sensitivity; with `march` the depth profiles and the zone march too,
+/// without it only the sizing and the dielectric states. Its numbers are those of [`plan`].
+pub(crate) fn plan_parts(scenario: &Scenario, product: &Product, march: bool) -> Result<Plan, Vec<InputError>> {
+    plan_core(scenario, product, if march { &PlanDepth::SEARCH_MARCH } else { &PlanDepth::ROW_SIZING })
+}
+
+fn plan_to_depth(scenario: &Scenario, depth: &PlanDepth) -> Result<Plan, Vec<InputError>> {
     let mut problems = scenario::validate(scenario);
     let product = Product::from_scenario(scenario).map_err(|errors| problems.extend(errors)).ok();
     match product {
-        Some(product) if problems.is_empty() => plan_with(scenario, &product).and_then(finite_or_error),
+        Some(product) if problems.is_empty() => plan_core(scenario, &product, depth).and_then(finite_or_error),
         _ => Err(problems),
     }
 }
@@ -264,7 +281,8 @@ pub fn plan_json(text: &str) -> Result<Plan, Vec<InputError>> {
     plan(&scenario::parse_scenario(text)?)
 }
 
-fn catalogue_for(scenario: &Scenario) -> Vec<GeneratorClass> {
+/// The built-in catalogue plus the scenario's own classes.
+pub(crate) fn catalogue_for(scenario: &Scenario) -> Vec<GeneratorClass> {
     let mut catalogue = builtin_catalogue().to_vec();
     catalogue.extend(scenario.generator.extra_classes.iter().cloned());
     catalogue
@@ -293,10 +311,12 @@ impl PlanDepth {
     /// A sensitivity row whose input leaves the permittivity alone: sizing and dielectric states.
     const ROW_SIZING: PlanDepth =
         PlanDepth { depth_profiles: false, zone_march: false, warnings: false, sensitivity: false };
-}
-
-fn plan_with(scenario: &Scenario, product: &Product) -> Result<Plan, Vec<InputError>> {
-    plan_core(scenario, product, &PlanDepth::FULL)
+    /// Everything but the sensitivity study (a band comparison row).
+    const NO_SENSITIVITY: PlanDepth =
+        PlanDepth { depth_profiles: true, zone_march: true, warnings: true, sensitivity: false };
+    /// The design search's bed figures: sizing, depth profiles and the zone march.
+    const SEARCH_MARCH: PlanDepth =
+        PlanDepth { depth_profiles: true, zone_march: true, warnings: false, sensitivity: false };
 }
 
 fn plan_core(scenario: &Scenario, product: &Product, depth: &PlanDepth) -> Result<Plan, Vec<InputError>> {

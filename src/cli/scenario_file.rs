@@ -8,7 +8,8 @@ use doubleprime::sizing::generators::GeneratorClass;
 /// that a wrong file (a video, a disk image) is refused before it is read into memory whole.
 const FILE_BYTES_MAX: u64 = 4 * 1024 * 1024;
 
-fn read_text(path: &str) -> Result<String, CliError> {
+/// The text of a file named on the command line, refused if it is too large.
+pub fn read_text(path: &str) -> Result<String, CliError> {
     let metadata = std::fs::metadata(path).map_err(|error| CliError::File(format!("{path}: cannot read ({error})")))?;
     if metadata.len() > FILE_BYTES_MAX {
         return Err(CliError::File(format!(

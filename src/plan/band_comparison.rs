@@ -6,7 +6,7 @@
 //! assumption the row states, not a finding.
 
 use super::product::Product;
-use super::{plan, Plan};
+use super::{plan_without_sensitivity, Plan};
 use crate::physics::waves::penetration_depth_m;
 use crate::scenario::Scenario;
 use serde::Serialize;
@@ -73,7 +73,9 @@ pub struct BandComparison {
     pub note: &'static str,
 }
 
-fn in_band(scenario: &Scenario, centre_mhz: f64) -> Scenario {
+/// The scenario moved to another frequency; outside its own band the generator class and its
+/// efficiencies are left to the new band's automatic pick.
+pub(crate) fn in_band(scenario: &Scenario, centre_mhz: f64) -> Scenario {
     let mut copy = scenario.clone();
     copy.frequency_mhz = centre_mhz;
     if crate::physics::bands::band_containing(centre_mhz)
@@ -112,12 +114,13 @@ fn summary(plan: &Plan) -> BandOutcome {
 /// Plan `scenario` in every compared band.
 pub fn compare(scenario: &Scenario) -> Result<BandComparison, Vec<crate::error::InputError>> {
     // The scenario itself must be valid; a band that cannot be planned is a row, not an error.
-    plan(scenario)?;
+    // The rows read no sensitivity, so none is computed (the rows' numbers are the full plan's).
+    plan_without_sensitivity(scenario)?;
     let own_band = crate::physics::bands::band_containing(scenario.frequency_mhz);
     let bands = COMPARED_BANDS_MHZ
         .iter()
         .map(|&centre| {
-            let outcome = match plan(&in_band(scenario, centre)) {
+            let outcome = match plan_without_sensitivity(&in_band(scenario, centre)) {
                 Ok(plan) => summary(&plan),
                 Err(errors) => BandOutcome::NotPlanned {
                     reason: errors.iter().map(ToString::to_string).collect::<Vec<_>>().join("; "),

@@ -405,7 +405,7 @@ impl<'a> Path<'a> {
 /// the nearer end (and a stage of no width its start). Illinois regula falsi: each step keeps a
 /// bracket, so it cannot fail to converge, and the stale end's value is halved so the bracket
 /// shrinks from both sides.
-fn temperature_at_enthalpy(
+pub fn temperature_at_enthalpy(
     enthalpy: impl Fn(f64) -> Result<f64, InputError>,
     target: f64,
     start: (f64, f64),

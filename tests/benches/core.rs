@@ -7,7 +7,11 @@ use doubleprime::physics::permittivity::ComplexPermittivity;
 use doubleprime::physics::waves::wave_properties;
 use doubleprime::plan::band_comparison::compare;
 use doubleprime::plan::plan;
+use doubleprime::plan::product::Product;
+use doubleprime::plan::sensitivity::sensitivity;
 use doubleprime::scenario::{parse_scenario, Scenario};
+use doubleprime::search::space::parse_space;
+use doubleprime::search::{search, Search};
 use std::hint::black_box;
 
 fn demo(name: &str, zones: u32) -> Scenario {
@@ -51,5 +55,43 @@ fn band_comparison(c: &mut Criterion) {
     c.bench_function("band comparison, sand cores, 10 zones", |b| b.iter(|| compare(black_box(&scenario))));
 }
 
-criterion_group!(benches, dielectric, material_lookup, full_plan, band_comparison);
+fn sensitivity_run(c: &mut Criterion) {
+    // The sensitivity study alone (its rows re-run the plan core), on a plan already made; a full
+    // plan() includes it.
+    let scenario = demo("tempering-beef-blocks.json", 12);
+    let product = Product::from_scenario(&scenario).expect("demo product");
+    let base = plan(&scenario).expect("demo plans");
+    c.bench_function("sensitivity run, tempering, 12 zones", |b| {
+        b.iter(|| sensitivity(black_box(&scenario), black_box(&product), black_box(&base)))
+    });
+}
+
+fn design_search(c: &mut Criterion) {
+    // 2 bands x 13 classes (every catalogue class at 915 and 2450 MHz) x 2 redundancies x 20 belt
+    // widths x 20 bed depths = 10 400 configurations, 10 zones; the bed-depth limit is off so
+    // every configuration reaches every check (40 zone marches of 10 zones).
+    let scenario = demo("pasteurising-potato-trays.json", 10);
+    let space = parse_space(
+        r#"{"bands_mhz": [915, 2450], "generator_classes": ["all"], "redundancy": ["n", "n_plus_1"],
+            "belt_width_m": {"from": 0.3, "to": 1.2, "steps": 20}, "bed_depth_m": {"from": 0.01, "to": 0.05, "steps": 20},
+            "zones": [10], "constraints": {"max_bed_over_penetration_depth": null}}"#,
+    )
+    .expect("bench space parses");
+    let configurations = Search::new(&scenario, &space).expect("bench space resolves").progress().total;
+    assert!(configurations >= 10_000, "the bench space has {configurations} configurations");
+    let mut group = c.benchmark_group("design search");
+    group.sample_size(10);
+    group.bench_function(format!("{configurations} configurations, evaluation only"), |b| {
+        b.iter(|| {
+            let mut running = Search::new(black_box(&scenario), black_box(&space)).expect("resolves");
+            running.step(usize::MAX)
+        })
+    });
+    group.bench_function(format!("{configurations} configurations, with the best 5 re-planned"), |b| {
+        b.iter(|| search(black_box(&scenario), black_box(&space)))
+    });
+    group.finish();
+}
+
+criterion_group!(benches, dielectric, material_lookup, full_plan, band_comparison, sensitivity_run, design_search);
 criterion_main!(benches);

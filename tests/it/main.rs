@@ -9,4 +9,5 @@ mod physics_properties;
 mod plan_energy_balance;
 mod plan_zones;
 mod scenario_properties;
+mod search;
 mod support;
