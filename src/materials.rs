@@ -5,7 +5,7 @@
 //! - ice: Maetzler (2006) ([`ice`]); frozen foods through the ASHRAE ice fraction ([`freezing`]);
 //! - moist materials: a named mixing rule of the Birchak family ([`mixing`]);
 //! - tabulated materials: interpolation that reports its points and flags requests outside the
-//!   data ([`interpolation`]); the data is `src/materials/library.json` ([`library`]);
+//!   data ([`interpolation`]); the data is `src/materials/library.json` ([`library()`]);
 //! - heat: IAPWS saturation properties and latent heats ([`thermal`]), Choi-Okos specific heats
 //!   ([`composition`]) and the ASHRAE frozen-food enthalpy ([`freezing`]).
 //!
