@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
 # Builds the browser app into dist/: the wasm module, its wasm-bindgen glue, the page shell,
-# the styles and the demo loads. Run .ci/setup.sh first.
+# and the styles (the demo loads are embedded in the wasm). Run .ci/setup.sh first.
 #
 # WEB_TARGET_DIR overrides the cargo target directory (default target/web, kept between runs so
 # rebuilds are incremental; separate from target/ so a native build never waits on its lock).
@@ -51,14 +51,11 @@ wasm_file="$staging/${bin_name}_bg.wasm"
 "$wasm_opt_bin" -Oz "$wasm_file" -o "$wasm_file.opt"
 mv "$wasm_file.opt" "$wasm_file"
 
-log "copying index.html, boot.js, style/*.css, demo-loads/*.json"
+# The demo loads are not copied: the wasm embeds them (src/web/demos.rs), so ?demo=NAME needs no
+# request and works from any server.
+log "copying index.html, boot.js, style/*.css"
 cp index.html src/web/boot.js "$staging/"
 cp style/*.css "$staging/style/"
-# Only the scenarios themselves: demo-loads/README.md documents them for people, not the page.
-mkdir -p "$staging/demo-loads"
-for demo in demo-loads/*.json; do
-    [ -e "$demo" ] && cp "$demo" "$staging/demo-loads/"
-done
 
 rm -rf "$dist_dir"
 mv "$staging" "$dist_dir"
@@ -77,4 +74,7 @@ log "dist/ sizes"
 size_line wasm "$dist_dir/${bin_name}_bg.wasm"
 size_line js "$dist_dir/$bin_name.js" "$dist_dir/boot.js"
 size_line css "$dist_dir"/style/*.css
+size_line html "$dist_dir/index.html"
+size_line all "$dist_dir/${bin_name}_bg.wasm" "$dist_dir/$bin_name.js" "$dist_dir/boot.js" "$dist_dir"/style/*.css \
+    "$dist_dir/index.html"
 log "build-web done in $((SECONDS - build_started)) s"

@@ -53,6 +53,12 @@ for _ in $(seq 100); do
     sleep 0.1
 done
 [ -n "$base_url" ] || fail "the test server did not start"
-step "browser smoke test at $base_url" bash tests/browser/smoke.sh "$base_url"
+# The browser test checks the page's numbers against the command-line tool that `cargo test`
+# built, and the server's request log for requests after load.
+cli_bin="$(cargo metadata --format-version 1 --no-deps |
+    python3 -c 'import json, sys; print(json.load(sys.stdin)["target_directory"])')/debug/doubleprime"
+step "cargo build (the CLI the browser test compares with)" cargo build "${locked[@]}" --bin doubleprime
+step "browser tests at $base_url" env DOUBLEPRIME_CLI="$cli_bin" REQUEST_LOG="$server_dir/requests.log" \
+    bash tests/browser/smoke.sh "$base_url"
 
 log "all checks passed in $((SECONDS - test_started)) s"

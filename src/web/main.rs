@@ -1,10 +1,39 @@
 //! `doubleprime-web`: the browser face of the computation core, a Leptos app mounted on the page body.
 //!
 //! Built for wasm32 only with `--features web` (see `.ci/build-web.sh`); `index.html` and
-//! `src/web/boot.js` load it. All numbers come from the `doubleprime` library, as in the CLI.
+//! `src/web/boot.js` load it. All numbers come from the `doubleprime` library, as in the CLI; the
+//! files here only read the form, lay out the page and draw. One file per part of the page.
 
 mod app;
+mod band_table;
+mod cautions_panel;
+mod choice_field;
 mod decimal_field;
+mod demo_picker;
+mod demos;
+mod depth_plot;
+mod error_summary;
+mod field_extras;
+mod fields;
+mod focus;
+mod form;
+mod form_field;
+mod format;
+mod markup;
+mod material_explorer;
+mod penetration_plot;
+mod permittivity_plot;
+mod plan_status;
+mod product_picker;
+mod results_summary;
+mod scenario_editor;
+mod scenario_file;
+mod sensitivity_chart;
+mod state;
+mod svg_chart;
+mod text_field;
+mod warnings_list;
+mod zone_plot;
 
 fn main() {
     // Panics show as readable messages in the browser console instead of "unreachable".
