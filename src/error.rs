@@ -44,8 +44,10 @@ pub fn range_text(min: f64, max: f64) -> String {
 }
 
 fn short_number(x: f64) -> String {
-    if x.is_finite() && x.abs() >= 1e-3 && x.abs() < 1e7 {
-        let text = format!("{x:.6}");
+    // Plain decimals for the ranges people type (down to a micrometre in metres); exponent form
+    // only for the extremes, where a row of zeros would be harder to read.
+    if x == 0.0 || (x.is_finite() && x.abs() >= 1e-6 && x.abs() < 1e7) {
+        let text = format!("{x:.9}");
         text.trim_end_matches('0').trim_end_matches('.').to_string()
     } else {
         format!("{x:e}")
@@ -81,6 +83,13 @@ mod tests {
             assert_eq!(error.field, "freq_mhz");
             assert!(error.to_string().contains("1 to 10"), "{error}");
         }
+    }
+
+    #[test]
+    fn ranges_read_as_typed() {
+        assert_eq!(range_text(0.0005, 2.0), "0.0005 to 2");
+        assert_eq!(range_text(0.0, 1e6), "0 to 1000000");
+        assert_eq!(range_text(1e-9, 3e8), "1e-9 to 3e8");
     }
 
     #[test]
