@@ -4,6 +4,7 @@ mod cli_dielectric;
 mod cli_layers;
 mod cli_material;
 mod cli_plan;
+mod cli_properties;
 mod demo_loads;
 mod physics_properties;
 mod plan_energy_balance;
