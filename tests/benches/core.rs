@@ -93,5 +93,24 @@ fn design_search(c: &mut Criterion) {
     group.finish();
 }
 
-criterion_group!(benches, dielectric, material_lookup, full_plan, band_comparison, sensitivity_run, design_search);
+fn depth_profile_solve(c: &mut Criterion) {
+    let layered = demo("layered-meal-trays.json", 1);
+    let eps = ComplexPermittivity::new(36.0, 17.0);
+    c.bench_function("depth profile, one solve (product, tray, belt, air gap, metal)", |b| {
+        b.iter(|| {
+            doubleprime::plan::depth_profile::depth_profile(black_box(&layered), black_box(2.45e9), black_box(eps))
+        })
+    });
+}
+
+criterion_group!(
+    benches,
+    depth_profile_solve,
+    dielectric,
+    material_lookup,
+    full_plan,
+    band_comparison,
+    sensitivity_run,
+    design_search
+);
 criterion_main!(benches);
