@@ -654,6 +654,35 @@ fn solve_unassessed(
     })
 }
 
+/// What a zone march needs from a stack: the product's absorptance and its highest sampled power
+/// density, from the same solver as [`solve_stack`] without the uniformity assessment and the
+/// warning texts (which cost more than the solution itself when a tunnel has hundreds of zones).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct ProductOptics {
+    /// Fraction of the incident power the product layers absorb.
+    pub product_absorptance: f64,
+    /// Highest sampled power density in the product, 1/m per unit incident flux; `None` with no product.
+    pub max_product_power_density_per_m: Option<f64>,
+}
+
+/// Solve a stack for [`ProductOptics`] only.
+pub fn product_optics(
+    frequency_hz: f64,
+    layers: &[Layer],
+    backing: Backing,
+    feed: Feed,
+    samples_per_layer: usize,
+) -> Result<ProductOptics, InputError> {
+    let solution = solve_unassessed(frequency_hz, layers, backing, feed, samples_per_layer)?;
+    let max_product_power_density_per_m = solution
+        .depth_profile
+        .iter()
+        .filter(|sample| layers.get(sample.layer).is_some_and(|layer| layer.is_product))
+        .map(|sample| sample.power_density_per_incident_flux_per_m)
+        .reduce(f64::max);
+    Ok(ProductOptics { product_absorptance: solution.product_absorptance, max_product_power_density_per_m })
+}
+
 /// Solve a stack and assess its uniformity with the given settings instead of the defaults.
 pub fn solve_stack_with(
     frequency_hz: f64,

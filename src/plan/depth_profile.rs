@@ -7,7 +7,7 @@
 //! power from each (the layers module's incoherent two-sided model).
 
 use crate::error::InputError;
-use crate::physics::layers::{solve_stack, Backing, Feed, Layer, StackSolution};
+use crate::physics::layers::{product_optics, solve_stack, Backing, Feed, Layer, ProductOptics, StackSolution};
 use crate::physics::permittivity::ComplexPermittivity;
 use crate::scenario::{BackingSpec, FeedSides, Scenario};
 
@@ -45,12 +45,8 @@ fn support_layers(scenario: &Scenario) -> (Vec<Layer>, Backing) {
     (layers, backing)
 }
 
-/// Solve the bed with the product at permittivity `product_eps`.
-pub fn depth_profile(
-    scenario: &Scenario,
-    frequency_hz: f64,
-    product_eps: ComplexPermittivity,
-) -> Result<StackSolution, InputError> {
+/// The whole stack with the product on top, its backing and how it is fed.
+fn stack(scenario: &Scenario, product_eps: ComplexPermittivity) -> (Vec<Layer>, Backing, Feed) {
     let (below, backing) = support_layers(scenario);
     let mut layers = vec![Layer {
         name: "product".into(),
@@ -63,6 +59,28 @@ pub fn depth_profile(
         FeedSides::Top => Feed::Top,
         FeedSides::Both => Feed::BothSides,
     };
+    (layers, backing, feed)
+}
+
+/// Solve the bed with the product at permittivity `product_eps`.
+pub fn depth_profile(
+    scenario: &Scenario,
+    frequency_hz: f64,
+    product_eps: ComplexPermittivity,
+) -> Result<StackSolution, InputError> {
+    let (layers, backing, feed) = stack(scenario, product_eps);
     solve_stack(frequency_hz, &layers, backing, feed, SAMPLES_PER_LAYER)
+        .map_err(|error| error.within("tunnel.load_stack"))
+}
+
+/// The product's absorptance and peak power density only, with the same sampling as
+/// [`depth_profile`] (for the zone march, which needs them once per zone state).
+pub fn bed_optics(
+    scenario: &Scenario,
+    frequency_hz: f64,
+    product_eps: ComplexPermittivity,
+) -> Result<ProductOptics, InputError> {
+    let (layers, backing, feed) = stack(scenario, product_eps);
+    product_optics(frequency_hz, &layers, backing, feed, SAMPLES_PER_LAYER)
         .map_err(|error| error.within("tunnel.load_stack"))
 }

@@ -89,7 +89,7 @@
 //! or through the depth, no surface cooling distributed along the tunnel (the allowances are
 //! taken off in proportion), no moisture gradient through the bed.
 
-use super::depth_profile::depth_profile;
+use super::depth_profile::bed_optics;
 use super::product::Product;
 use super::warnings::Warning;
 use super::Zone;
@@ -527,15 +527,14 @@ impl Marcher<'_> {
                 peak_to_mean: (eps.eps_imag > 0.0).then_some(1.0),
             });
         }
-        let solution = depth_profile(input.scenario, input.frequency_hz, eps)?;
-        let absorptance = clean_fraction(solution.product_absorptance);
+        let optics = bed_optics(input.scenario, input.frequency_hz, eps)?;
+        let absorptance = clean_fraction(optics.product_absorptance);
         let bed_m = input.scenario.tunnel.bed_depth_m;
         // Mean of p / S_inc over the product is its absorptance over its thickness.
-        let peak_to_mean = solution
-            .uniformity
-            .as_ref()
+        let peak_to_mean = optics
+            .max_product_power_density_per_m
             .filter(|_| absorptance > 0.0)
-            .map(|u| (u.max_power_density_per_m * bed_m / absorptance).max(1.0))
+            .map(|max| (max * bed_m / absorptance).max(1.0))
             .filter(|ratio| ratio.is_finite());
         Ok(Optics {
             eps,
