@@ -5,6 +5,7 @@ mod args;
 mod bands;
 mod compare;
 mod dielectric;
+mod generators;
 mod layers;
 mod material;
 mod materials;
@@ -16,7 +17,7 @@ use args::CliError;
 
 /// The one-line usage summary, shown for an unknown or missing subcommand.
 const USAGE: &str =
-    "usage: doubleprime <dielectric|bands|layers|plan|compare|search|material|materials> [options]; see README.md";
+    "usage: doubleprime <dielectric|bands|generators|layers|plan|compare|search|material|materials> [options]; see README.md";
 
 /// Run one command line (without the program name) and return what to print on stdout.
 pub fn run(args: &[String]) -> Result<String, CliError> {
@@ -26,6 +27,7 @@ pub fn run(args: &[String]) -> Result<String, CliError> {
     match command.as_str() {
         "dielectric" => dielectric::run(rest),
         "bands" => bands::run(rest),
+        "generators" => generators::run(rest),
         "material" => material::run(rest),
         "materials" => materials::run(rest),
         "layers" => layers::run(rest),

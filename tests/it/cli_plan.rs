@@ -109,3 +109,15 @@ fn csv_carries_one_row_per_zone_with_units_in_the_headers() {
     let sum: f64 = lines[1..].iter().map(|row| row.split(',').nth(column).unwrap().parse::<f64>().unwrap()).sum();
     assert!((sum - number(&plan, "absorbed_power_kw")).abs() < 1e-6 * sum);
 }
+
+#[test]
+fn generators_lists_the_catalogue_by_band() {
+    let all = run_json(&["generators"]);
+    let in_band = run_json(&["generators", "--freq-mhz", "2450"]);
+    assert!(all["count"].as_u64().unwrap() > in_band["count"].as_u64().unwrap());
+    for class in in_band["classes"].as_array().unwrap() {
+        assert_eq!(class["freq_mhz"], 2450.0);
+    }
+    let line = run_refused(&["generators", "--freq-mhz", "-1"]);
+    assert!(line.contains("--freq-mhz"), "{line}");
+}
