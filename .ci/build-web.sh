@@ -1,6 +1,8 @@
 #!/usr/bin/env bash
-# Builds the browser app into dist/: the wasm module, its wasm-bindgen glue, the page shell,
-# and the styles (the demo loads are embedded in the wasm). Run .ci/setup.sh first.
+# Builds the browser app into dist/: one self-contained page (the wasm module, its wasm-bindgen
+# glue and the styles inside it; the demo loads are embedded in the wasm), served as
+# dist/index.html with its service worker dist/sw.js, and the same page as
+# dist/doubleprime-offline.html for opening by double-click. Run .ci/setup.sh first.
 #
 # WEB_TARGET_DIR overrides the cargo target directory (default target/web, kept between runs so
 # rebuilds are incremental; separate from target/ so a native build never waits on its lock).
@@ -36,26 +38,32 @@ cargo_started=$SECONDS
 "$wasm_cargo" build "${cargo_flags[@]}"
 log "cargo build: $((SECONDS - cargo_started)) s"
 
-# Assemble in a staging directory and swap it in at the end, so a failed build never leaves a
-# half-written dist/ behind for a running server.
+# The parts (module, glue, shell, styles) are assembled in target/, then packed into one page in a
+# staging directory that is swapped in at the end, so a failed build never leaves a half-written
+# dist/ behind for a running server.
+parts="$target_dir/dist-parts"
 staging="$target_dir/dist-staging"
-rm -rf "$staging"
-mkdir -p "$staging/style"
+rm -rf "$parts" "$staging"
+mkdir -p "$parts/style" "$staging"
 
 log "wasm-bindgen --target web"
 "$wasm_bindgen_bin" "$target_dir/wasm32-unknown-unknown/release/$bin_name.wasm" \
-    --out-dir "$staging" --target web --no-typescript
+    --out-dir "$parts" --target web --no-typescript
 
 log "wasm-opt -Oz (binaryen $binaryen_version)"
-wasm_file="$staging/${bin_name}_bg.wasm"
+wasm_file="$parts/${bin_name}_bg.wasm"
 "$wasm_opt_bin" -Oz "$wasm_file" -o "$wasm_file.opt"
 mv "$wasm_file.opt" "$wasm_file"
 
-# The demo loads are not copied: the wasm embeds them (src/web/demos.rs), so ?demo=NAME needs no
-# request and works from any server.
-log "copying index.html, boot.js, style/*.css"
-cp index.html src/web/boot.js "$staging/"
-cp style/*.css "$staging/style/"
+cp index.html "$parts/"
+cp style/*.css "$parts/style/"
+
+# The served page is the self-contained one: its policy allows no connections (connect-src
+# 'none'), so the module cannot be fetched and travels inside the page.
+log "packing one self-contained page (.ci/build_single_file.py)"
+python3 .ci/build_single_file.py "$parts" "$staging/index.html"
+cp "$staging/index.html" "$staging/doubleprime-offline.html"
+cp src/web/sw.js "$staging/"
 
 rm -rf "$dist_dir"
 mv "$staging" "$dist_dir"
@@ -70,11 +78,10 @@ size_line() {
     done
     printf '    %-5s %9d bytes raw %9d bytes gzipped\n' "$label" "$raw" "$gzipped"
 }
-log "dist/ sizes"
-size_line wasm "$dist_dir/${bin_name}_bg.wasm"
-size_line js "$dist_dir/$bin_name.js" "$dist_dir/boot.js"
-size_line css "$dist_dir"/style/*.css
-size_line html "$dist_dir/index.html"
-size_line all "$dist_dir/${bin_name}_bg.wasm" "$dist_dir/$bin_name.js" "$dist_dir/boot.js" "$dist_dir"/style/*.css \
-    "$dist_dir/index.html"
+log "sizes: the parts, and the one page that holds them"
+size_line wasm "$parts/${bin_name}_bg.wasm"
+size_line js "$parts/$bin_name.js"
+size_line css "$parts"/style/*.css
+size_line page "$dist_dir/index.html"
+size_line sw "$dist_dir/sw.js"
 log "build-web done in $((SECONDS - build_started)) s"

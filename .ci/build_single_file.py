@@ -9,7 +9,8 @@ Browsers refuse ES-module imports and wasm fetches from file:// pages, so nothin
 the module is decompressed in the page with DecompressionStream('gzip') and handed to the glue's
 async init as bytes (not initSync, which Chromium refuses on the main thread above 8 MB). The
 page's Content-Security-Policy names the one inline script and each inline style by hash, allows
-'wasm-unsafe-eval' for the module, and allows no connections at all (connect-src 'none').
+'wasm-unsafe-eval' for the module, and allows no connections at all (connect-src 'none'); only
+the service worker script beside a served page may load (worker-src 'self').
 """
 
 import base64
@@ -48,6 +49,10 @@ async function unpackModule() {
   const stream = new Blob([bytes]).stream().pipeThrough(new DecompressionStream('gzip'));
   return new Uint8Array(await new Response(stream).arrayBuffer());
 }
+// The served page keeps itself for offline reuse (sw.js); file:// has no service workers.
+if ('serviceWorker' in navigator && location.protocol !== 'file:') {
+  navigator.serviceWorker.register('sw.js').catch((error) => console.warn('no offline copy:', error));
+}
 unpackModule()
   .then((bytes) => __wbg_init({ module_or_path: bytes }))
   .then(() => status?.remove())
@@ -76,6 +81,8 @@ unpackModule()
         "style-src " + " ".join(sha256_source(css) for css in styles) if styles else "style-src 'none'",
         "img-src data:",
         "connect-src 'none'",
+        # The service worker script, when the page is served (sw.js beside it).
+        "worker-src 'self'",
         "base-uri 'none'",
         "form-action 'none'",
     ])

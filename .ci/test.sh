@@ -60,5 +60,9 @@ cli_bin="$(cargo metadata --format-version 1 --no-deps |
 step "cargo build (the CLI the browser test compares with)" cargo build "${locked[@]}" --bin doubleprime
 step "browser tests at $base_url" env DOUBLEPRIME_CLI="$cli_bin" REQUEST_LOG="$server_dir/requests.log" \
     bash tests/browser/smoke.sh "$base_url"
+# Saving, importing, the link, the exports, the printed quote, blocked storage, the offline copy
+# and the single file from file://. It serves dist/ itself, since one check stops the server.
+step "browser tests: scenarios that last and travel" env DOUBLEPRIME_CLI="$cli_bin" \
+    python3 tests/browser/persist.py dist
 
 log "all checks passed in $((SECONDS - test_started)) s"

@@ -11,18 +11,23 @@ use crate::material_explorer::MaterialExplorer;
 use crate::penetration_plot::PenetrationPlot;
 use crate::permittivity_plot::PermittivityPlot;
 use crate::plan_status::PlanStatus;
+use crate::quote_sheet::QuoteSheet;
 use crate::results_summary::ResultsSummary;
 use crate::scenario_editor::ScenarioEditor;
 use crate::sensitivity_chart::SensitivityChart;
 use crate::state::AppState;
 use crate::warnings_list::WarningsList;
 use crate::zone_plot::ZonePlot;
+use doubleprime::scenario::link::{scenario_from_fragment, LINK_PREFIX};
 use leptos::prelude::*;
 
 /// The whole page.
 #[component]
 pub fn App() -> impl IntoView {
-    let (opened, values, notice) = opening_form(requested_demo().as_deref());
+    let (opened, values, notice) = match linked_form(location_hash().as_deref()) {
+        Some((values, notice)) => (DEFAULT_DEMO, values, notice),
+        None => opening_form(requested_demo().as_deref()),
+    };
     let state = AppState::new(&values, notice);
     let stale = move || state.is_stale();
     view! {
@@ -79,7 +84,30 @@ pub fn App() -> impl IntoView {
                 </footer>
             </main>
         </div>
+        <QuoteSheet state=state />
     }
+}
+
+/// The form a link opens (`#s1.` and a scenario), with a notice if the link does not read; `None`
+/// when the address carries no scenario link.
+fn linked_form(hash: Option<&str>) -> Option<(FormValues, Option<String>)> {
+    let fragment = hash?.trim_start_matches('#');
+    if !fragment.starts_with(LINK_PREFIX) {
+        return None;
+    }
+    Some(match scenario_from_fragment(fragment) {
+        Ok(scenario) => (FormValues::from_scenario(&scenario), Some("Opened the scenario in the link.".to_string())),
+        Err(problems) => {
+            let (_, values, _) = opening_form(None);
+            let why = problems.iter().map(ToString::to_string).collect::<Vec<_>>().join("; ");
+            (values, Some(format!("The link does not hold a scenario this version reads ({why}); opened the default demo load instead.")))
+        }
+    })
+}
+
+/// The address's `#` fragment, if any.
+fn location_hash() -> Option<String> {
+    web_sys::window()?.location().hash().ok().filter(|hash| !hash.is_empty())
 }
 
 /// The demo to open, the form showing it, and a notice when the address asked for a demo that
@@ -112,6 +140,7 @@ fn requested_demo() -> Option<String> {
 #[cfg(test)]
 mod tests {
     use super::*;
+    use doubleprime::scenario::link::scenario_to_fragment;
 
     #[test]
     fn the_address_picks_the_demo() {
@@ -123,5 +152,18 @@ mod tests {
         assert_eq!(name, DEFAULT_DEMO);
         assert!(notice.unwrap().contains("no-such-demo"));
         assert_eq!(opening_form(None).0, DEFAULT_DEMO);
+    }
+
+    #[test]
+    fn a_link_opens_its_scenario_and_a_bad_one_says_so() {
+        let scenario = demo("drying-sand-cores").unwrap().scenario().unwrap();
+        let (values, notice) = linked_form(Some(&format!("#{}", scenario_to_fragment(&scenario)))).unwrap();
+        assert_eq!(values.to_scenario().unwrap(), scenario);
+        assert!(notice.unwrap().contains("in the link"));
+        let (values, notice) = linked_form(Some("#s1.@@@")).unwrap();
+        assert!(values.to_scenario().is_ok());
+        assert!(notice.unwrap().contains("does not hold"));
+        assert!(linked_form(Some("#results")).is_none());
+        assert!(linked_form(None).is_none());
     }
 }

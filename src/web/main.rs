@@ -1,7 +1,7 @@
 //! `doubleprime-web`: the browser face of the computation core, a Leptos app mounted on the page body.
 //!
-//! Built for wasm32 only with `--features web` (see `.ci/build-web.sh`); `index.html` and
-//! `src/web/boot.js` load it. All numbers come from the `doubleprime` library, as in the CLI; the
+//! Built for wasm32 only with `--features web` (see `.ci/build-web.sh`), which packs it with
+//! `index.html` and the styles into one self-contained page. All numbers come from the `doubleprime` library, as in the CLI; the
 //! files here only read the form, lay out the page and draw. One file per part of the page.
 
 mod app;
@@ -12,6 +12,7 @@ mod decimal_field;
 mod demo_picker;
 mod demos;
 mod depth_plot;
+mod download;
 mod error_summary;
 mod field_extras;
 mod fields;
@@ -25,11 +26,16 @@ mod penetration_plot;
 mod permittivity_plot;
 mod plan_status;
 mod product_picker;
+mod quote_sheet;
 mod results_summary;
+mod saved_scenarios;
 mod scenario_editor;
 mod scenario_file;
+mod scenario_transfer;
 mod sensitivity_chart;
 mod state;
+mod storage;
+mod storage_records;
 mod svg_chart;
 mod text_field;
 mod warnings_list;

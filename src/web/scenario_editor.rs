@@ -7,7 +7,9 @@ use crate::error_summary::ErrorSummary;
 use crate::fields::Key;
 use crate::form_field::form_fields;
 use crate::product_picker::ProductPicker;
+use crate::saved_scenarios::SavedScenarios;
 use crate::scenario_file::ScenarioFile;
+use crate::scenario_transfer::ScenarioTransfer;
 use crate::state::AppState;
 use leptos::prelude::*;
 
@@ -145,6 +147,8 @@ pub fn ScenarioEditor(
                 "Scenario"
             </h2>
             <DemoPicker state=state opened=opened />
+            <SavedScenarios state=state />
+            <ScenarioTransfer state=state />
             <ErrorSummary state=state />
             <ProductPicker state=state />
             {sections}
