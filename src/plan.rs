@@ -592,7 +592,14 @@ fn plan_warnings(scenario: &Scenario, product: &Product, plan: &Plan) -> Vec<War
             let suggestion = band_comparison::deeper_band_suggestion(scenario, product, limit);
             list.push(Warning::new(
                 "bed_deeper_than_penetration",
-                format!("The bed is {:.0} mm deep, {ratio:.1} times the smallest penetration depth in the tunnel: the far side will lag and the near side overheat. Make the bed shallower{}, feed from both sides, or use a lower frequency.{suggestion}", scenario.tunnel.bed_depth_m * 1000.0, if scenario.tunnel.feed == FeedSides::Top { "" } else { " still" }),
+                format!(
+                    "The bed is {:.0} mm deep, {ratio:.1} times the smallest penetration depth in the tunnel: the far side will lag and the near side overheat. {}{suggestion}",
+                    scenario.tunnel.bed_depth_m * 1000.0,
+                    match scenario.tunnel.feed {
+                        FeedSides::Top => "Make the bed shallower, feed from both sides, or use a lower frequency.",
+                        FeedSides::Both => "Even fed from both sides that is too deep: make the bed shallower or use a lower frequency.",
+                    }
+                ),
             ));
         }
     }
@@ -603,7 +610,10 @@ fn plan_warnings(scenario: &Scenario, product: &Product, plan: &Plan) -> Vec<War
             .unwrap_or_else(|| "almost none".into());
         list.push(Warning::new(
             "core_lags",
-            format!("At the {} the product's core receives {share} of the surface power density (layered solution through the bed): the core will lag behind the surface. Make the bed thinner, feed from both sides, add equalising time, or use a lower frequency.", lagging.state),
+            format!("At the {} the product's core receives {share} of the surface power density (layered solution through the bed): the core will lag behind the surface. {}", lagging.state, match scenario.tunnel.feed {
+                FeedSides::Top => "Make the bed thinner, feed from both sides, add equalising time, or use a lower frequency.",
+                FeedSides::Both => "Make the bed thinner, add equalising time, or use a lower frequency.",
+            }),
         ));
     }
     let runaway_zones =

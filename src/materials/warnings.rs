@@ -128,7 +128,7 @@ pub fn runaway_risk(
     let (t1, e1) = samples[end];
     let ratio_text = if ratio.is_finite() { format!("{ratio:.2}x") } else { "from zero".to_string() };
     let message = format!(
-        "{}: eps'' rises from {e0:.3} to {e1:.3} ({ratio_text}) between {t0:.1} and {t1:.1} degC at {:.2} MHz; hotter spots absorb more and can run away: control the end temperature, use pulsed power or equalizing holds",
+        "{}: the loss factor eps'' rises from {e0:.3} to {e1:.3} ({ratio_text}) between {t0:.1} and {t1:.1} °C at {:.2} MHz; hotter spots absorb more and can run away: control the end temperature, use pulsed power or equalizing holds",
         material.label,
         frequency_hz / 1e6
     );
