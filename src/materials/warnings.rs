@@ -190,7 +190,9 @@ pub fn bed_depth_check(penetration_depth_m: Option<f64>, bed_depth_m: f64) -> Re
             message: "the material is lossless at this frequency: it will hardly heat".into(),
         });
     };
-    let dp = require_positive("penetration_depth_m", dp, 1e9)?;
+    // A nanometre floor: no dielectric has a smaller penetration depth, and below it bed / Dp
+    // can overflow to infinity.
+    let dp = crate::error::require_in("penetration_depth_m", dp, 1e-9, 1e9)?;
     let ratio = bed / dp;
     let far = (-ratio).exp();
     let middle = 2.0 * (-ratio / 2.0).exp() / (1.0 + far);

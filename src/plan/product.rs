@@ -88,6 +88,22 @@ impl ProductThermal for Product {
     }
 }
 
+/// A user-defined product with c_p = 2000 J/(kg K) whatever the moisture and constant eps = 10 - j2,
+/// so every stage of a path is linear and can be worked by hand (shared by the tests).
+#[cfg(test)]
+pub(crate) fn by_hand_constant_product() -> Product {
+    let spec: crate::materials::custom::CustomMaterialSpec = serde_json::from_str(
+        r#"{"name": "by hand", "density_kg_per_m3": 800, "specific_heat_j_per_kg_k": 2000,
+            "dielectric": {"model": "constant", "eps_real": 10, "eps_imag": 2}}"#,
+    )
+    .expect("the test material parses");
+    Product {
+        material: crate::materials::custom::custom_material(&spec).expect("the test material is valid"),
+        salt_pct: None,
+        loss_factor_multiplier: 1.0,
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

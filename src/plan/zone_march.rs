@@ -780,19 +780,8 @@ mod tests {
     use crate::sizing::tunnel::{lay_out, ResidenceRule, TunnelInput};
     use approx::assert_relative_eq;
 
-    /// cp 2000 J/(kg K) whatever the moisture (a user-defined constant), so every stage is
-    /// linear and the path can be worked by hand.
     fn constant_product() -> Product {
-        let spec: crate::materials::custom::CustomMaterialSpec = serde_json::from_str(
-            r#"{"name": "by hand", "density_kg_per_m3": 800, "specific_heat_j_per_kg_k": 2000,
-                "dielectric": {"model": "constant", "eps_real": 10, "eps_imag": 2}}"#,
-        )
-        .unwrap();
-        Product {
-            material: crate::materials::custom::custom_material(&spec).unwrap(),
-            salt_pct: None,
-            loss_factor_multiplier: 1.0,
-        }
+        crate::plan::product::by_hand_constant_product()
     }
 
     fn drying_scenario(inlet_c: f64, outlet_c: f64) -> Scenario {

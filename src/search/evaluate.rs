@@ -707,18 +707,8 @@ pub(crate) mod tests {
         }
     }
 
-    /// cp 2000 J/(kg K) whatever the moisture: H = 2000 T, so the path is linear by hand.
     fn constant_product() -> Product {
-        let spec: crate::materials::custom::CustomMaterialSpec = serde_json::from_str(
-            r#"{"name": "by hand", "density_kg_per_m3": 800, "specific_heat_j_per_kg_k": 2000,
-                "dielectric": {"model": "constant", "eps_real": 10, "eps_imag": 2}}"#,
-        )
-        .unwrap();
-        Product {
-            material: crate::materials::custom::custom_material(&spec).unwrap(),
-            salt_pct: None,
-            loss_factor_multiplier: 1.0,
-        }
+        crate::plan::product::by_hand_constant_product()
     }
 
     fn outlet(temp_c: f64, moisture_wb: f64, product_out_per_in: f64) -> OutletState {

@@ -75,3 +75,12 @@ proptest! {
         }
     }
 }
+
+/// Found by `warnings_never_panic`: a subnormal penetration depth made bed / Dp overflow to
+/// infinity. It is now refused by name.
+#[test]
+fn a_subnormal_penetration_depth_is_refused() {
+    let error =
+        crate::materials::warnings::bed_depth_check(Some(2.992262981800266e-309), 0.7504731637420365).unwrap_err();
+    assert_eq!(error.field, "penetration_depth_m");
+}
