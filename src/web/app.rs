@@ -14,6 +14,7 @@ use crate::plan_status::PlanStatus;
 use crate::quote_sheet::QuoteSheet;
 use crate::results_summary::ResultsSummary;
 use crate::scenario_editor::ScenarioEditor;
+use crate::search_panel::SearchPanel;
 use crate::sensitivity_chart::SensitivityChart;
 use crate::state::AppState;
 use crate::warnings_list::WarningsList;
@@ -46,6 +47,7 @@ pub fn App() -> impl IntoView {
                 <a href="#profiles">"Profiles"</a>
                 <a href="#bands">"Bands"</a>
                 <a href="#sensitivity">"Sensitivity"</a>
+                <a href="#search">"Cheaper lines"</a>
                 <a href="#materials">"Materials"</a>
                 <a class="app-nav-safety" href="#safety" data-testid="nav-safety">
                     "Safety"
@@ -76,6 +78,7 @@ pub fn App() -> impl IntoView {
                 </section>
                 <BandTable state=state />
                 <SensitivityChart state=state />
+                <SearchPanel state=state />
                 <MaterialExplorer state=state />
                 <CautionsPanel state=state />
                 <footer class="app-footer">

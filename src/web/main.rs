@@ -32,6 +32,7 @@ mod saved_scenarios;
 mod scenario_editor;
 mod scenario_file;
 mod scenario_transfer;
+mod search_panel;
 mod sensitivity_chart;
 mod state;
 mod storage;

@@ -637,6 +637,115 @@ def check_demo_and_custom(driver: Driver, cli: Cli) -> None:
     wait_for_plan(driver, cli, "back to the opening demo")
 
 
+# Start the design search, watch its progress from the page itself (a MutationObserver on the
+# panel), and click Cancel as soon as it has moved part way: the slices yield to the browser with
+# a zero-delay timeout, so the click lands before the next slice runs. With the argument 'edit' it
+# edits the throughput instead, which must stop the search too.
+SEARCH_START_AND_CANCEL = """
+const done = arguments[arguments.length - 1];
+const panel = document.getElementById('search');
+const values = [];
+const observer = new MutationObserver(() => {
+  const bar = panel.querySelector('[data-testid="search-progress"]');
+  if (!bar) return;
+  const value = Number(bar.getAttribute('value')), max = Number(bar.getAttribute('max'));
+  if (values[values.length - 1] !== value) values.push(value);
+  if (value > 0 && value < max) {
+    observer.disconnect();
+    if (arguments[0] === 'edit') {
+      const input = document.querySelector('[data-testid="input-throughput_kg_per_h"]');
+      input.value = '3001';
+      input.dispatchEvent(new Event('input', {bubbles: true}));
+    } else {
+      panel.querySelector('[data-testid="search-cancel"]').click();
+    }
+    done({values: values, max: max, cancelled: true});
+  } else if (value >= max) {
+    observer.disconnect();
+    done({values: values, max: max, cancelled: false});
+  }
+});
+observer.observe(panel, {subtree: true, childList: true, attributes: true, characterData: true});
+panel.querySelector('[data-testid="search-start"]').click();
+"""
+
+
+def progress_value(driver: Driver) -> float:
+    return float(driver.script('return document.querySelector(\'[data-testid="search-progress"]\').getAttribute("value")'))
+
+
+def check_search(driver: Driver, cli: Cli) -> None:
+    expected = cli.run("search", os.path.join(REPO, "demo-loads", f"{DEMO}.json"))
+    total = expected["configurations"]
+    scroll_to(driver, "search")
+    seen = driver.call("POST", f"{driver.session}/execute/async", {"script": SEARCH_START_AND_CANCEL, "args": ["cancel"]})
+    if not seen.get("cancelled"):
+        raise Check(f"the search finished before it could be cancelled: {seen}")
+    if int(seen["max"]) != total:
+        raise Check(f"the search progress counts {seen['max']} configurations, the CLI {total}")
+    if len(seen["values"]) < 2 or seen["values"][0] != 0:
+        raise Check(f"the search progress did not move from 0: {seen['values']}")
+    stopped_at = seen["values"][-1]
+    time.sleep(1.0)
+    if progress_value(driver) != stopped_at:
+        raise Check(f"the search went on after Cancel: {stopped_at} then {progress_value(driver)}")
+    driver.wait_text("search-progress-text", f"{int(stopped_at)} of {total} configurations")
+    driver.wait_text("search-status", "Stopped")
+    if driver.script('return !!document.querySelector(\'[data-testid="search-best"]\')'):
+        raise Check("a cancelled search shows a table of best configurations")
+    print(f"interact: search progress moved {seen['values']} of {total}, and Cancel stopped it with no results")
+
+    driver.click('[data-testid="search-start"]')
+    driver.wait("the search's best configurations", lambda: driver.script(
+        'return !!document.querySelector(\'[data-testid="search-best"]\')'), timeout=120)
+    driver.wait_text("search-progress-text", f"{total} of {total} configurations")
+    rows = driver.script(
+        "return Array.from(document.querySelectorAll('[data-testid=\"search-best-row\"]')).map(r => {"
+        " const g = r.querySelector('[data-testid=\"search-best-generators\"]');"
+        " return {cls: g.getAttribute('data-class'), count: Number(g.getAttribute('data-value')),"
+        " belt: Number(r.querySelector('[data-testid=\"search-best-belt\"]').getAttribute('data-value')),"
+        " bed: Number(r.querySelector('[data-testid=\"search-best-bed\"]').getAttribute('data-value'))}; })"
+    )
+    if len(rows) != len(expected["best"]):
+        raise Check(f"the page shows {len(rows)} best configurations, the CLI {len(expected['best'])}")
+    best = expected["best"][0]
+    first = rows[0]
+    if first["cls"] != best["generator_class"] or first["count"] != best["generator_count"]:
+        raise Check(f"best configuration: page {first}, CLI {best['generator_class']} x {best['generator_count']}")
+    close(first["belt"], best["belt_width_m"], "best configuration: belt width")
+    close(first["bed"], best["bed_depth_m"], "best configuration: bed depth")
+    if driver.shots:
+        scroll_to(driver, "search")
+        driver.screenshot(os.path.join(driver.shots, "search-1366x768.png"))
+        driver.script("document.querySelector('[data-testid=\"chart-search-frontier\"]').scrollIntoView({block: 'start'})")
+        time.sleep(0.2)
+        driver.screenshot(os.path.join(driver.shots, "search-frontier-1366x768.png"))
+    frontier = driver.script("return document.querySelectorAll('[data-testid=\"search-frontier-row\"]').length")
+    if frontier != len(expected["frontier"]):
+        raise Check(f"the page's frontier has {frontier} points, the CLI's {len(expected['frontier'])}")
+    if not driver.script('return document.querySelector(\'[data-testid="chart-search-frontier"] desc\')?.textContent'):
+        raise Check("the frontier chart has no text description")
+    print(
+        f"interact: the search ran to the end; best {best['generator_count']} x {best['generator_class']}, "
+        f"belt {best['belt_width_m']} m, bed {best['bed_depth_m']} m, as the CLI's"
+    )
+
+    # An edit of the scenario stops a running search.
+    seen = driver.call("POST", f"{driver.session}/execute/async", {"script": SEARCH_START_AND_CANCEL, "args": ["edit"]})
+    if not seen.get("cancelled"):
+        raise Check(f"the search finished before the scenario could be edited: {seen}")
+    driver.wait_text("search-status", "the scenario changed")
+    stopped_at = progress_value(driver)
+    time.sleep(1.0)
+    if progress_value(driver) != stopped_at:
+        raise Check(f"the search went on after an edit: {stopped_at} then {progress_value(driver)}")
+    if driver.script('return !!document.querySelector(\'[data-testid="search-best"]\')'):
+        raise Check("a search stopped by an edit shows a table of best configurations")
+    driver.type_into("input-throughput_kg_per_h", "3000")
+    wait_for_plan(driver, cli, "throughput back at 3000 kg/h after the search")
+    print(f"interact: editing the throughput stopped a running search at {stopped_at:g} of {total}")
+
+
 def scroll_to(driver: Driver, element_id: str) -> None:
     driver.script(f"document.getElementById('{element_id}').scrollIntoView({{block: 'start'}})")
     time.sleep(0.2)
@@ -690,6 +799,7 @@ def run(driver: Driver, base_url: str, cli: Cli, shots: str, request_log: str) -
     check_accessibility(driver)
     take_screenshots(driver, shots)
     check_tables(driver, opening)
+    check_search(driver, cli)
     scroll_to(driver, "zone-plot")
     driver.screenshot(os.path.join(shots, "zone-table-1366x768.png"))
     check_typing(driver, cli, opening)
