@@ -326,26 +326,14 @@ impl<'a> Path<'a> {
     /// The product after `energy` J per kg in.
     fn at(&self, energy: f64) -> Result<Point, InputError> {
         let energy = energy.clamp(0.0, self.total());
-        if !self.drying {
+        // The first heating stage: all of the path when nothing dries, else up to the boiling point.
+        if !self.drying || (self.heat_one > 0.0 && energy < self.heat_one) {
+            let stage_end_c = if self.drying { self.evaporation_temp_c } else { self.outlet_temp_c };
             let temp_c = self.temperature_at(
                 self.inlet_moisture_wb,
                 self.inlet_enthalpy + energy,
                 (self.inlet_temp_c, self.inlet_enthalpy),
-                (self.outlet_temp_c, self.inlet_enthalpy + self.heat_one),
-            )?;
-            return Ok(Point {
-                temp_c,
-                moisture_wb: self.inlet_moisture_wb,
-                water_removed_per_kg_in: 0.0,
-                stage: Stage::Heating,
-            });
-        }
-        if self.heat_one > 0.0 && energy < self.heat_one {
-            let temp_c = self.temperature_at(
-                self.inlet_moisture_wb,
-                self.inlet_enthalpy + energy,
-                (self.inlet_temp_c, self.inlet_enthalpy),
-                (self.evaporation_temp_c, self.inlet_enthalpy + self.heat_one),
+                (stage_end_c, self.inlet_enthalpy + self.heat_one),
             )?;
             return Ok(Point {
                 temp_c,
