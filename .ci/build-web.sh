@@ -68,20 +68,6 @@ cp src/web/sw.js "$staging/"
 rm -rf "$dist_dir"
 mv "$staging" "$dist_dir"
 
-# size_line LABEL FILE...: raw and gzip -9 bytes, summed over the files.
-size_line() {
-    local label="$1" raw=0 gzipped=0 file
-    shift
-    for file in "$@"; do
-        raw=$((raw + $(wc -c <"$file")))
-        gzipped=$((gzipped + $(gzip -9 -c "$file" | wc -c)))
-    done
-    printf '    %-5s %9d bytes raw %9d bytes gzipped\n' "$label" "$raw" "$gzipped"
-}
-log "sizes: the parts, and the one page that holds them"
-size_line wasm "$parts/${bin_name}_bg.wasm"
-size_line js "$parts/$bin_name.js"
-size_line css "$parts"/style/*.css
-size_line page "$dist_dir/index.html"
-size_line sw "$dist_dir/sw.js"
+log "sizes: the parts, and the one page that holds them (.ci/size_report.py)"
+python3 .ci/size_report.py "$parts" "$dist_dir" ${SIZE_REPORT_JSON:+--json "$SIZE_REPORT_JSON"}
 log "build-web done in $((SECONDS - build_started)) s"

@@ -67,6 +67,11 @@ step "browser tests at $base_url" env DOUBLEPRIME_CLI="$cli_bin" REQUEST_LOG="$s
 step "browser tests: scenarios that last and travel" env DOUBLEPRIME_CLI="$cli_bin" \
     python3 tests/browser/persist.py dist
 
+# The timing harness, briefly (20 ms a workload, two loads, the debug CLI): proves it runs from a
+# clean clone. Its figures are reported only; `bash .ci/browser-timing.sh` gives the real ones.
+step "browser timing harness (report only)" \
+    python3 tests/browser/timing.py dist --cli "$cli_bin" --budget-ms 20 --loads 2 --out "$repo_root/target/browser-timing-quick.json"
+
 log "all checks passed in $((SECONDS - test_started)) s"
 # The plain closing line CI reads: every step above ran and passed (set -e stops at the first failure).
 echo "checks: $steps_passed passed, 0 failed"

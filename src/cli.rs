@@ -12,12 +12,13 @@ mod materials;
 mod plan;
 mod scenario_file;
 mod search;
+mod timing;
 
 use args::CliError;
 
 /// The one-line usage summary, shown for an unknown or missing subcommand.
 const USAGE: &str =
-    "usage: doubleprime <dielectric|bands|generators|layers|plan|compare|search|material|materials> [options]; see README.md";
+    "usage: doubleprime <dielectric|bands|generators|layers|plan|compare|search|timing|material|materials> [options]; see README.md";
 
 /// Run one command line (without the program name) and return what to print on stdout.
 pub fn run(args: &[String]) -> Result<String, CliError> {
@@ -34,6 +35,7 @@ pub fn run(args: &[String]) -> Result<String, CliError> {
         "plan" => plan::run(rest),
         "compare" => compare::run(rest),
         "search" => search::run(rest),
+        "timing" => timing::run(rest),
         "--help" | "-h" | "help" => Ok(USAGE.to_string()),
         other => Err(CliError::Usage(format!("unknown subcommand `{other}`; {USAGE}"))),
     }

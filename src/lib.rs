@@ -16,3 +16,4 @@ pub mod safety;
 pub mod scenario;
 pub mod search;
 pub mod sizing;
+pub mod timing;

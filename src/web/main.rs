@@ -39,11 +39,17 @@ mod storage;
 mod storage_records;
 mod svg_chart;
 mod text_field;
+mod timing_page;
 mod warnings_list;
 mod zone_plot;
 
 fn main() {
     // Panics show as readable messages in the browser console instead of "unreachable".
     console_error_panic_hook::set_once();
+    if let Some(requested) = timing_page::requested() {
+        timing_page::run(requested);
+        return;
+    }
     leptos::mount::mount_to_body(app::App);
+    timing_page::mark_first_plan();
 }

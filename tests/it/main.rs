@@ -5,6 +5,7 @@ mod cli_layers;
 mod cli_material;
 mod cli_plan;
 mod cli_properties;
+mod cli_timing;
 mod demo_loads;
 mod physics_properties;
 mod plan_energy_balance;
