@@ -66,6 +66,10 @@ step "browser tests at $base_url" env DOUBLEPRIME_CLI="$cli_bin" REQUEST_LOG="$s
 # and the single file from file://. It serves dist/ itself, since one check stops the server.
 step "browser tests: scenarios that last and travel" env DOUBLEPRIME_CLI="$cli_bin" \
     python3 tests/browser/persist.py dist
+# 10,000 rapid edits of the form: the plan on screen keeps up with the last valid input, and the
+# JS heap, the wasm memory and the DOM stop growing after a warm-up (about a minute).
+step "browser tests: soak of 10,000 edits" env DOUBLEPRIME_CLI="$cli_bin" \
+    python3 tests/browser/soak.py "$base_url"
 
 # The timing harness, briefly (20 ms a workload, two loads, the debug CLI): proves it runs from a
 # clean clone. Its figures are reported only; `bash .ci/browser-timing.sh` gives the real ones.

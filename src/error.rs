@@ -38,6 +38,13 @@ impl fmt::Display for InputError {
 
 impl std::error::Error for InputError {}
 
+/// `text` in double quotes with quotes, backslashes and control characters escaped, for echoing
+/// a user's text in a message. Not `{:?}`: the wasm build compiles Debug formatting out
+/// (`-Zfmt-debug=none`, see .ci/build-web.sh), and a message must not lose the value it names.
+pub fn quoted(text: &str) -> String {
+    format!("\"{}\"", text.escape_debug())
+}
+
 /// Format a range for messages, trimming needless decimals (`0.001 to 100000`).
 pub fn range_text(min: f64, max: f64) -> String {
     format!("{} to {}", short_number(min), short_number(max))

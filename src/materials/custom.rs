@@ -82,7 +82,7 @@ pub fn custom_material(spec: &CustomMaterialSpec) -> Result<Material, Vec<InputE
     let mut problems = Vec::new();
     let name = spec.name.trim();
     if name.is_empty() || name.chars().count() > NAME_MAX_CHARS {
-        problems.push(InputError::new("name", format!("{:?}", spec.name), "1 to 60 characters"));
+        problems.push(InputError::new("name", crate::error::quoted(&spec.name), "1 to 60 characters"));
     }
     let source_id = "user".to_string();
     let dielectric = match &spec.dielectric {
@@ -167,7 +167,7 @@ fn check_range(problems: &mut Vec<InputError>, field: &str, range: [f64; 2], min
 
 fn check_source(problems: &mut Vec<InputError>, material: &Material, field: &str, id: &str) {
     if material.source_by_id(id).is_none() {
-        problems.push(InputError::new(field, format!("{id:?}"), "the id of an entry in `sources`"));
+        problems.push(InputError::new(field, crate::error::quoted(id), "the id of an entry in `sources`"));
     }
 }
 
@@ -186,7 +186,7 @@ pub fn material_problems(material: &Material) -> Vec<InputError> {
     if !valid_name {
         problems.push(InputError::new(
             "name",
-            format!("{:?}", material.name),
+            crate::error::quoted(&material.name),
             "lower-case letters, digits and hyphens",
         ));
     }
@@ -201,14 +201,14 @@ pub fn material_problems(material: &Material) -> Vec<InputError> {
         if source.id.is_empty() || source.citation.trim().is_empty() {
             problems.push(InputError::new(
                 format!("sources[{index}]"),
-                format!("{:?}", source.id),
+                crate::error::quoted(&source.id),
                 "an id and a citation",
             ));
         }
         if material.sources[..index].iter().any(|s| s.id == source.id) {
             problems.push(InputError::new(
                 format!("sources[{index}].id"),
-                format!("{:?}", source.id),
+                crate::error::quoted(&source.id),
                 "an id not used twice",
             ));
         }

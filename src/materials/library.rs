@@ -416,7 +416,7 @@ pub fn library() -> &'static Library {
 
 /// An error for an unknown material name, listing what exists.
 pub fn unknown_material(name: &str) -> InputError {
-    InputError::new("material", format!("{name:?}"), format!("one of: {}", library().names().join(", ")))
+    InputError::new("material", crate::error::quoted(name), format!("one of: {}", library().names().join(", ")))
 }
 
 #[cfg(test)]

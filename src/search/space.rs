@@ -537,13 +537,13 @@ pub fn resolve(
         match catalogue.iter().find(|class| &class.id == entry) {
             None => problems.push(InputError::new(
                 &field,
-                format!("{entry:?}"),
+                crate::error::quoted(entry),
                 "\"auto\", \"all\" or an id from the generator catalogue",
             )),
             Some(class) if !bands_mhz.iter().any(|freq| class.serves_frequency(*freq)) => {
                 problems.push(InputError::new(
                     &field,
-                    format!("{entry:?}"),
+                    crate::error::quoted(entry),
                     format!("a class serving one of bands_mhz (this one runs at {} MHz)", class.freq_mhz),
                 ))
             }

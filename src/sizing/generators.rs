@@ -90,7 +90,7 @@ impl GeneratorClass {
         ));
         check(require_in("anode_kv", self.anode_kv, 0.0, 100.0));
         if self.id.trim().is_empty() || self.id.len() > 64 {
-            problems.push(InputError::new("id", format!("{:?}", self.id), "1 to 64 characters"));
+            problems.push(InputError::new("id", crate::error::quoted(&self.id), "1 to 64 characters"));
         }
         problems
     }
@@ -173,14 +173,14 @@ impl SelectionError {
     /// As an input error on the scenario field that caused it.
     pub fn to_input_error(&self) -> InputError {
         match self {
-            SelectionError::UnknownClass(id) => InputError::new("generator_class", format!("{id:?}"), "an id from the generator catalogue (doubleprime generators)"),
+            SelectionError::UnknownClass(id) => InputError::new("generator_class", crate::error::quoted(id), "an id from the generator catalogue (doubleprime generators)"),
             SelectionError::WrongBand { class_id, class_mhz, wanted_mhz } => InputError::new(
                 "generator_class",
-                format!("{class_id:?}"),
+                crate::error::quoted(class_id),
                 format!("a class at {wanted_mhz} MHz (this one runs at {class_mhz} MHz)"),
             ),
             SelectionError::NoClassForBand(freq) => InputError::new("frequency_mhz", freq, "a frequency served by a catalogue class (13.56, 27.12, 40.68, 896, 915 or 2450 MHz), or add a class in extra_generators"),
-            SelectionError::TooMany { class_id, count } => InputError::new("generator_class", format!("{class_id:?}"), format!("a larger class: {count:.0} units would be needed, more than 1000")),
+            SelectionError::TooMany { class_id, count } => InputError::new("generator_class", crate::error::quoted(class_id), format!("a larger class: {count:.0} units would be needed, more than 1000")),
         }
     }
 }

@@ -59,7 +59,11 @@ impl SiteInput {
         .flatten()
         .collect();
         if self.currency.chars().count() > 12 {
-            problems.push(InputError::new("site.currency", format!("{:?}", self.currency), "at most 12 characters"));
+            problems.push(InputError::new(
+                "site.currency",
+                crate::error::quoted(&self.currency),
+                "at most 12 characters",
+            ));
         }
         problems
     }
