@@ -31,6 +31,7 @@ pub fn App() -> impl IntoView {
     };
     let state = AppState::new(&values, notice);
     let stale = move || state.is_stale();
+    after_first_frame(move || state.first_plan_shown.set(true));
     view! {
         <a class="app-skip" href="#scenario-editor-title">
             "Skip to the scenario"
@@ -89,6 +90,20 @@ pub fn App() -> impl IntoView {
         </div>
         <QuoteSheet state=state />
     }
+}
+
+/// Run `then` once the first frame is painted: a timeout from inside an animation frame callback
+/// runs after that frame. Without a window (native tests) it never runs.
+fn after_first_frame(then: impl FnOnce() + 'static) {
+    use wasm_bindgen::JsCast;
+    let Some(window) = web_sys::window() else { return };
+    let after_paint = wasm_bindgen::closure::Closure::once_into_js(move || {
+        let later = wasm_bindgen::closure::Closure::once_into_js(then);
+        if let Some(window) = web_sys::window() {
+            let _ = window.set_timeout_with_callback_and_timeout_and_arguments_0(later.unchecked_ref(), 0);
+        }
+    });
+    let _ = window.request_animation_frame(after_paint.unchecked_ref());
 }
 
 /// The form a link opens (`#s1.` and a scenario), with a notice if the link does not read; `None`

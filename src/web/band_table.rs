@@ -113,6 +113,7 @@ pub fn BandTable(state: AppState) -> impl IntoView {
         let currency = state.shown.with(|s| s.as_ref().map(|s| s.plan.utilities.currency.clone())).unwrap_or_default();
         state.comparison.with(|comparison| match comparison {
             Some(comparison) => comparison_html(comparison, &currency),
+            None if !state.first_plan_shown.get() => "<p>Comparing the bands\u{2026}</p>".to_string(),
             None => "<p>No comparison: the scenario has not been planned yet.</p>".to_string(),
         })
     });

@@ -46,6 +46,7 @@ mod zone_plot;
 fn main() {
     // Panics show as readable messages in the browser console instead of "unreachable".
     console_error_panic_hook::set_once();
+    timing_page::mark("doubleprime-wasm-started");
     if let Some(requested) = timing_page::requested() {
         timing_page::run(requested);
         return;

@@ -97,7 +97,10 @@ pub struct AppState {
     pub planned: Memo<Result<Planned, Vec<InputError>>>,
     /// The newest valid plan: the one on screen.
     pub shown: Memo<Option<Planned>>,
-    /// The shown scenario in every band.
+    /// False until the page has shown its first plan: the band comparison (a plan per band)
+    /// waits for it, so it does not delay the first plan on screen.
+    pub first_plan_shown: RwSignal<bool>,
+    /// The shown scenario in every band, once the first plan is on screen.
     pub comparison: Memo<Option<Arc<BandComparison>>>,
     /// Every problem with the form as it is now.
     pub problems: Memo<Vec<InputError>>,
@@ -122,11 +125,15 @@ impl AppState {
                 Err(_) => previous.cloned().flatten(),
             })
         });
+        let first_plan_shown = RwSignal::new(false);
         let comparison = Memo::new(move |_| {
+            if !first_plan_shown.get() {
+                return None;
+            }
             shown.with(|shown| shown.as_ref().and_then(|shown| compare(&shown.scenario).ok().map(Arc::new)))
         });
         let problems = Memo::new(move |_| planned.with(|planned| planned.as_ref().err().cloned().unwrap_or_default()));
-        Self { form, scenario, planned, shown, comparison, problems, notice: RwSignal::new(notice) }
+        Self { form, scenario, planned, shown, first_plan_shown, comparison, problems, notice: RwSignal::new(notice) }
     }
 
     /// True while the form holds a problem and the plan on screen is an older one.

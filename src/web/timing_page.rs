@@ -4,8 +4,10 @@
 //! harness (`bash .ci/browser-timing.sh`) reads. Plain DOM, no Leptos: this mode should cost the
 //! module as little as possible.
 //!
-//! In the normal mode it leaves two marks for the harness: `doubleprime-first-plan` once the app
-//! is mounted with its first plan in the page, `doubleprime-first-plan-frame` at the next frame.
+//! In the normal mode it leaves marks for the harness: `doubleprime-wasm-started` when the module
+//! starts, `doubleprime-first-plan` once the app is mounted with its first plan in the page, and
+//! `doubleprime-first-plan-frame` at the next frame (the boot script adds
+//! `doubleprime-module-unpacked`).
 
 use doubleprime::error::range_text;
 use doubleprime::timing::time_workloads;
@@ -92,18 +94,20 @@ fn set_report(document: &web_sys::Document, state: &str, text: &str) {
     }
 }
 
+/// Leave a named mark on the page's performance timeline, for the timing harness.
+pub fn mark(name: &str) {
+    if let Some(performance) = web_sys::window().and_then(|window| window.performance()) {
+        let _ = performance.mark(name);
+    }
+}
+
 /// Mark the first plan in the page now, and the frame that shows it.
 pub fn mark_first_plan() {
-    let Some(window) = web_sys::window() else { return };
-    if let Some(performance) = window.performance() {
-        let _ = performance.mark("doubleprime-first-plan");
+    mark("doubleprime-first-plan");
+    let callback = wasm_bindgen::closure::Closure::once_into_js(move || mark("doubleprime-first-plan-frame"));
+    if let Some(window) = web_sys::window() {
+        let _ = window.request_animation_frame(callback.unchecked_ref());
     }
-    let callback = wasm_bindgen::closure::Closure::once_into_js(move || {
-        if let Some(performance) = web_sys::window().and_then(|window| window.performance()) {
-            let _ = performance.mark("doubleprime-first-plan-frame");
-        }
-    });
-    let _ = window.request_animation_frame(callback.unchecked_ref());
 }
 
 #[cfg(test)]

@@ -10,8 +10,10 @@ Usage: timing.py DIST_DIR --cli DOUBLEPRIME [--budget-ms MS] [--loads N] [--out 
   code natively. The table gives both medians and their ratio (wasm / native).
 - First plan on screen: N loads of `?demo=tempering-beef-blocks` from a local server, each in a
   fresh tab state (cache and service worker cleared, so every load fetches the whole page), read
-  from the page's performance marks: `doubleprime-first-plan` (the app mounted with its plan in
-  the page) and `doubleprime-first-plan-frame` (the frame that shows it), from navigation start.
+  from the page's performance marks, in ms from navigation start: `doubleprime-module-unpacked`
+  (the boot script has the module's bytes), `doubleprime-wasm-started` (its main runs),
+  `doubleprime-first-plan` (the app mounted with its plan in the page) and
+  `doubleprime-first-plan-frame` (the frame that shows it), beside the navigation's own figures.
 
 The figures go to stdout as a table and to --out as JSON (default target/browser-timing.json).
 Uses interact.py's WebDriver client and persist.py's server.
@@ -37,7 +39,8 @@ BUDGETS_MS = {
     "search_10400_configurations": 1000.0,
     "first_plan_frame": 300.0,
 }
-MARKS = ("doubleprime-first-plan", "doubleprime-first-plan-frame")
+MARKS = ("doubleprime-module-unpacked", "doubleprime-wasm-started", "doubleprime-first-plan",
+         "doubleprime-first-plan-frame")
 
 
 def load_timings(driver: Driver, url: str) -> dict:
@@ -62,7 +65,8 @@ def load_timings(driver: Driver, url: str) -> dict:
     )
     if not driver.script('return !!document.querySelector(\'[data-testid="result-generator_count"]\')'):
         raise Check("the first-plan mark is set but no plan is on the page")
-    return {"first_plan": found[0], "first_plan_frame": found[1], **navigation}
+    marks = dict(zip(("module_unpacked", "wasm_started", "first_plan", "first_plan_frame"), found))
+    return {**marks, **navigation}
 
 
 def wasm_workloads(driver: Driver, base: str, budget_ms: float, timeout_s: float) -> dict:
@@ -109,7 +113,8 @@ def report(wasm: dict, native: dict, loads: list) -> dict:
         ratio_text = f"{ratio:6.2f}" if ratio is not None else "     -"
         print(f"{w['key']:34} {w['median_ms']:10.4f} {n['median_ms']:10.4f} {ratio_text}  {verdict(w['key'], w['median_ms'])}")
     summary = {}
-    for key in ("first_plan", "first_plan_frame", "first_contentful_paint", "response_end"):
+    for key in ("response_end", "dom_content_loaded", "first_contentful_paint", "module_unpacked", "wasm_started",
+                "first_plan", "first_plan_frame"):
         values = [load[key] for load in loads if load.get(key) is not None]
         if values:
             summary[key] = {"median_ms": statistics.median(values), "min_ms": min(values), "max_ms": max(values)}
