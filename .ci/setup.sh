@@ -47,6 +47,9 @@ need_command gzip gzip
 need_command python3 python3
 need_command node nodejs
 need_command npm npm
+# zopfli packs the module inside the page about 4 % smaller than gzip -9 (build_single_file.py
+# falls back to gzip without it).
+need_command zopfli zopfli
 if is_debian; then
     need_package ca-certificates
 fi

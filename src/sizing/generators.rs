@@ -64,7 +64,10 @@ const CATALOGUE_JSON: &str = include_str!("generators.json");
 pub fn builtin_catalogue() -> &'static [GeneratorClass] {
     static CATALOGUE: OnceLock<Vec<GeneratorClass>> = OnceLock::new();
     CATALOGUE.get_or_init(|| {
-        serde_json::from_str::<CatalogueFile>(CATALOGUE_JSON).map(|file| file.classes).unwrap_or_default()
+        serde_json::from_str::<serde_json::Value>(CATALOGUE_JSON)
+            .and_then(serde_json::from_value::<CatalogueFile>)
+            .map(|file| file.classes)
+            .unwrap_or_default()
     })
 }
 
