@@ -14,6 +14,7 @@
 
 pub mod composition;
 pub mod custom;
+mod enthalpy_curve;
 pub mod freezing;
 pub mod ice;
 pub mod interpolation;
@@ -28,6 +29,7 @@ pub mod water;
 #[cfg(test)]
 mod tests;
 
+pub use enthalpy_curve::EnthalpyCurve;
 pub use library::{library, Category, Confidence, DielectricModel, Library, Material, Source, ThermalModel};
 
 use crate::error::{require_in, require_positive, InputError};
@@ -253,11 +255,7 @@ pub fn permittivity_with_conductivity(
         }
     };
     notes.extend(value.notes);
-    // Loss can only be zero or positive; a tiny negative value from rounding is shown as zero.
-    let eps = ComplexPermittivity::new(value.eps.re, (-value.eps.im).max(0.0));
-    if !(eps.eps_real.is_finite() && eps.eps_imag.is_finite() && eps.eps_real > 0.0) {
-        return Err(InputError::new("temp_c", temp_c, format!("a state {} can be evaluated at", material.name)));
-    }
+    let eps = finished(material, temp_c, value.eps)?;
     Ok(PermittivityLookup {
         eps,
         in_range: value.out_of_range.is_empty(),
@@ -267,6 +265,58 @@ pub fn permittivity_with_conductivity(
         source: material.source.clone(),
         notes,
     })
+}
+
+/// The permittivity alone: the value, checks and errors of [`permittivity`] without the texts a
+/// lookup carries (model, sources, points, notes, range flags). For loops that read only the
+/// number (the zone march, the runaway scan), where writing the texts costs more than the physics.
+pub fn permittivity_value(
+    material: &Material,
+    frequency_hz: f64,
+    state: &MaterialState,
+) -> Result<ComplexPermittivity, InputError> {
+    let frequency_hz = checked_frequency(frequency_hz)?;
+    state.checked()?;
+    let temp_c = state.temp_c;
+    // Each arm computes what the same arm of `permittivity_with_conductivity` does, by the same
+    // functions, so the two agree bit for bit (a unit test holds them to it).
+    let value = match &material.dielectric {
+        DielectricModel::Water { .. } => {
+            saline::permittivity(frequency_hz, temp_c, state.salt_pct.unwrap_or(0.0) / 100.0, None).eps
+        }
+        DielectricModel::Ice { .. } => ice::permittivity(frequency_hz, temp_c.min(0.0)),
+        DielectricModel::Constant { eps_real, eps_imag, .. } => {
+            crate::physics::complex::Complex::new(*eps_real, -eps_imag)
+        }
+        DielectricModel::Table { points, nominal_moisture_wb } => {
+            let moisture = state.moisture_wb.or(*nominal_moisture_wb);
+            let (eps_real, eps_imag) = interpolation::interpolate_eps(points, frequency_hz / 1e6, temp_c, moisture);
+            crate::physics::complex::Complex::new(eps_real, -eps_imag)
+        }
+        DielectricModel::Moist { .. } => {
+            models::moist_eps(&material.dielectric, frequency_hz, temp_c, state.moisture_wb, state.salt_pct, None)
+                .ok_or_else(|| broken(material))?
+        }
+        DielectricModel::Frozen { .. } => {
+            models::frozen_eps(material, frequency_hz, temp_c, state.moisture_wb, state.salt_pct)
+                .ok_or_else(|| broken(material))?
+        }
+    };
+    finished(material, temp_c, value)
+}
+
+/// A model's eps' - j eps'' as a checked permittivity.
+fn finished(
+    material: &Material,
+    temp_c: f64,
+    value: crate::physics::complex::Complex,
+) -> Result<ComplexPermittivity, InputError> {
+    // Loss can only be zero or positive; a tiny negative value from rounding is shown as zero.
+    let eps = ComplexPermittivity::new(value.re, (-value.im).max(0.0));
+    if !(eps.eps_real.is_finite() && eps.eps_imag.is_finite() && eps.eps_real > 0.0) {
+        return Err(InputError::new("temp_c", temp_c, format!("a state {} can be evaluated at", material.name)));
+    }
+    Ok(eps)
 }
 
 fn broken(material: &Material) -> InputError {
@@ -289,7 +339,12 @@ fn ignore_salt(material: &Material, state: &MaterialState, notes: &mut Vec<Strin
     }
 }
 
+#[inline]
 fn checked_temp(temp_c: f64) -> Result<f64, InputError> {
+    // The accepted case inline: root searches check every temperature they try.
+    if temp_c.is_finite() && (TEMP_MIN_C..=TEMP_MAX_C).contains(&temp_c) {
+        return Ok(temp_c);
+    }
     require_in("temp_c", temp_c, TEMP_MIN_C, TEMP_MAX_C)
 }
 
@@ -434,31 +489,9 @@ impl Material {
     /// The reference differs between models (see [`Material::enthalpy_reference`]): only
     /// differences within one material are meaningful.
     pub fn enthalpy_j_per_kg(&self, temp_c: f64, moisture_wb: Option<f64>) -> Result<f64, InputError> {
+        // The temperature first, as every entry point checks it before the moisture.
         let temp_c = checked_temp(temp_c)?;
-        let moisture_wb = checked_moisture(moisture_wb)?;
-        Ok(match &self.thermal {
-            ThermalModel::Water { .. } => thermal::liquid_enthalpy_from_zero(temp_c),
-            ThermalModel::Ice { .. } => {
-                if temp_c < 0.0 {
-                    thermal::ice_enthalpy_unchecked(temp_c)
-                } else {
-                    thermal::liquid_enthalpy_from_zero(temp_c)
-                }
-            }
-            ThermalModel::Composition { .. } => {
-                let (food, tf) = models::food_state(self, moisture_wb).ok_or_else(|| broken(self))?;
-                match tf {
-                    Some(tf) => freezing::food_enthalpy_j_per_kg(&food, tf, temp_c),
-                    None => food.sensible_heat_j_per_kg(0.0, temp_c),
-                }
-            }
-            ThermalModel::Constant { specific_heat_j_per_kg_k, .. } => specific_heat_j_per_kg_k * temp_c,
-            ThermalModel::Table { points, .. } => table_enthalpy(points, temp_c),
-            ThermalModel::DryPlusWater { dry_specific_heat_j_per_kg_k, moisture_wb: nominal, .. } => {
-                let x = moisture_wb.unwrap_or(*nominal);
-                x * thermal::liquid_enthalpy_from_zero(temp_c) + (1.0 - x) * dry_specific_heat_j_per_kg_k * temp_c
-            }
-        })
+        self.enthalpy_curve(moisture_wb)?.enthalpy_j_per_kg(temp_c)
     }
 
     /// What [`Material::enthalpy_j_per_kg`] is measured from.

@@ -29,6 +29,7 @@ use crate::sizing::tunnel::{lay_out, Tunnel, TunnelInput};
 use crate::sizing::utilities::{utilities, SiteInput, Utilities};
 use product::Product;
 use serde::Serialize;
+use std::borrow::Cow;
 use warnings::*;
 
 /// The permittivity and penetration depth at one product state.
@@ -281,11 +282,15 @@ pub fn plan_json(text: &str) -> Result<Plan, Vec<InputError>> {
     plan(&scenario::parse_scenario(text)?)
 }
 
-/// The built-in catalogue plus the scenario's own classes.
-pub(crate) fn catalogue_for(scenario: &Scenario) -> Vec<GeneratorClass> {
+/// The built-in catalogue plus the scenario's own classes (borrowed when there are none: a plan
+/// and each of its sensitivity rows look the catalogue up).
+pub(crate) fn catalogue_for(scenario: &Scenario) -> Cow<'static, [GeneratorClass]> {
+    if scenario.generator.extra_classes.is_empty() {
+        return Cow::Borrowed(builtin_catalogue());
+    }
     let mut catalogue = builtin_catalogue().to_vec();
     catalogue.extend(scenario.generator.extra_classes.iter().cloned());
-    catalogue
+    Cow::Owned(catalogue)
 }
 
 /// How much of a plan to compute: all of it, or only what a sensitivity row reads.

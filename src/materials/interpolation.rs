@@ -82,18 +82,27 @@ fn range_note(levels: &[f64]) -> String {
     }
 }
 
-/// Interpolate `points` at (`freq_mhz`, `temp_c`, `moisture_wb`). `moisture_wb` is used only when
-/// the points carry moisture; it must then be given (the caller supplies the nominal value).
-pub fn interpolate(points: &[TablePoint], freq_mhz: f64, temp_c: f64, moisture_wb: Option<f64>) -> Interpolated {
+/// Where a request fell outside the data, with the levels it was bracketed among (the text is
+/// written only by [`interpolate`], so that [`interpolate_eps`] allocates none).
+enum Outside<'a> {
+    Frequency { levels: &'a [f64] },
+    Moisture { requested: f64, freq: f64, levels: &'a [f64] },
+    Temperature { freq: f64, moisture: Option<f64>, levels: &'a [f64] },
+}
+
+/// Each point's weight at the request; `outside` hears of every axis outside the data.
+fn weights(
+    points: &[TablePoint],
+    freq_mhz: f64,
+    temp_c: f64,
+    moisture_wb: Option<f64>,
+    outside: &mut dyn FnMut(Outside),
+) -> Vec<f64> {
     let mut weights = vec![0.0; points.len()];
-    let mut out_of_range = Vec::new();
     let freq_levels = levels(points.iter().map(|p| p.freq_mhz));
     let (freq_bracket, freq_outside) = bracket(&freq_levels, freq_mhz, true);
     if freq_outside {
-        out_of_range.push(format!(
-            "freq_mhz = {freq_mhz} is outside the data ({} MHz); the nearest frequency's data is used",
-            range_note(&freq_levels)
-        ));
+        outside(Outside::Frequency { levels: &freq_levels });
     }
     for (freq, freq_weight) in freq_bracket {
         let at_freq: Vec<usize> = (0..points.len()).filter(|&i| same(points[i].freq_mhz, freq)).collect();
@@ -101,12 +110,9 @@ pub fn interpolate(points: &[TablePoint], freq_mhz: f64, temp_c: f64, moisture_w
         let moisture_groups: Vec<(Option<f64>, f64)> = if has_moisture {
             let moisture_levels = levels(at_freq.iter().filter_map(|&i| points[i].moisture_wb));
             let requested = moisture_wb.unwrap_or(f64::NAN);
-            let (moisture_bracket, outside) = bracket(&moisture_levels, requested, false);
-            if outside {
-                out_of_range.push(format!(
-                    "moisture_wb = {requested} is outside the data at {freq} MHz ({}); the nearest moisture's data is used",
-                    range_note(&moisture_levels)
-                ));
+            let (moisture_bracket, is_outside) = bracket(&moisture_levels, requested, false);
+            if is_outside {
+                outside(Outside::Moisture { requested, freq, levels: &moisture_levels });
             }
             moisture_bracket.into_iter().map(|(m, w)| (Some(m), w)).collect()
         } else {
@@ -123,16 +129,9 @@ pub fn interpolate(points: &[TablePoint], freq_mhz: f64, temp_c: f64, moisture_w
                 })
                 .collect();
             let temp_levels = levels(group.iter().map(|&i| points[i].temp_c));
-            let (temp_bracket, outside) = bracket(&temp_levels, temp_c, false);
-            if outside {
-                let place = match moisture {
-                    Some(m) => format!("{freq} MHz, moisture {m}"),
-                    None => format!("{freq} MHz"),
-                };
-                out_of_range.push(format!(
-                    "temp_c = {temp_c} is outside the data at {place} ({} degC); the nearest temperature's data is used",
-                    range_note(&temp_levels)
-                ));
+            let (temp_bracket, is_outside) = bracket(&temp_levels, temp_c, false);
+            if is_outside {
+                outside(Outside::Temperature { freq, moisture, levels: &temp_levels });
             }
             for (temp, temp_weight) in temp_bracket {
                 // Several points at the same (f, m, T) would be duplicates; they share the weight.
@@ -144,18 +143,62 @@ pub fn interpolate(points: &[TablePoint], freq_mhz: f64, temp_c: f64, moisture_w
             }
         }
     }
+    weights
+}
+
+/// The weighted sums (eps', eps'') over the points that received a weight.
+fn weighted_eps(points: &[TablePoint], weights: &[f64]) -> (f64, f64) {
     let mut eps_real = 0.0;
     let mut eps_imag = 0.0;
-    let mut used = Vec::new();
-    for (index, &weight) in weights.iter().enumerate() {
+    for (point, &weight) in points.iter().zip(weights) {
         if weight > 0.0 {
-            eps_real += weight * points[index].eps_real;
-            eps_imag += weight * points[index].eps_imag;
-            used.push(WeightedPoint { index, weight });
+            eps_real += weight * point.eps_real;
+            eps_imag += weight * point.eps_imag;
         }
     }
+    (eps_real, eps_imag)
+}
+
+/// Interpolate `points` at (`freq_mhz`, `temp_c`, `moisture_wb`). `moisture_wb` is used only when
+/// the points carry moisture; it must then be given (the caller supplies the nominal value).
+pub fn interpolate(points: &[TablePoint], freq_mhz: f64, temp_c: f64, moisture_wb: Option<f64>) -> Interpolated {
+    let mut out_of_range = Vec::new();
+    let weights = weights(points, freq_mhz, temp_c, moisture_wb, &mut |outside| {
+        out_of_range.push(match outside {
+            Outside::Frequency { levels } => format!(
+                "freq_mhz = {freq_mhz} is outside the data ({} MHz); the nearest frequency's data is used",
+                range_note(levels)
+            ),
+            Outside::Moisture { requested, freq, levels } => format!(
+                "moisture_wb = {requested} is outside the data at {freq} MHz ({}); the nearest moisture's data is used",
+                range_note(levels)
+            ),
+            Outside::Temperature { freq, moisture, levels } => {
+                let place = match moisture {
+                    Some(m) => format!("{freq} MHz, moisture {m}"),
+                    None => format!("{freq} MHz"),
+                };
+                format!(
+                    "temp_c = {temp_c} is outside the data at {place} ({} degC); the nearest temperature's data is used",
+                    range_note(levels)
+                )
+            }
+        })
+    });
+    let (eps_real, eps_imag) = weighted_eps(points, &weights);
+    let used = weights
+        .iter()
+        .enumerate()
+        .filter(|(_, &weight)| weight > 0.0)
+        .map(|(index, &weight)| WeightedPoint { index, weight })
+        .collect();
     out_of_range.dedup();
     Interpolated { eps_real, eps_imag, points: used, out_of_range }
+}
+
+/// (eps', eps'') as [`interpolate`] gives them, without the points and flags.
+pub fn interpolate_eps(points: &[TablePoint], freq_mhz: f64, temp_c: f64, moisture_wb: Option<f64>) -> (f64, f64) {
+    weighted_eps(points, &weights(points, freq_mhz, temp_c, moisture_wb, &mut |_| {}))
 }
 
 #[cfg(test)]

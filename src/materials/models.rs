@@ -123,14 +123,23 @@ pub(crate) fn moist_fractions(
     (v_solid / swell, v_water / swell, (1.0 - filled).max(0.0), bulk_density)
 }
 
-pub(crate) fn moist_value(
+/// The numbers of the moist model at one state, before any text is written.
+struct MoistParts {
+    moisture_wb: f64,
+    volume_fractions: (f64, f64, f64),
+    salt_fraction: f64,
+    saturated: bool,
+    eps: Complex,
+}
+
+fn moist_parts(
     model: &DielectricModel,
     frequency_hz: f64,
     temp_c: f64,
     moisture_wb: Option<f64>,
     salt_pct: Option<f64>,
     conductivity_s_per_m: Option<f64>,
-) -> Option<ModelValue> {
+) -> Option<MoistParts> {
     let DielectricModel::Moist {
         solid_eps_real,
         solid_eps_imag,
@@ -138,20 +147,13 @@ pub(crate) fn moist_value(
         dry_bulk_density_kg_per_m3,
         mixing_rule,
         moisture_wb: nominal,
-        moisture_range_wb,
         salt_pct: default_salt,
-        temp_range_c,
-        freq_range_mhz,
         ..
     } = model
     else {
         return None;
     };
     let x = moisture_wb.unwrap_or(*nominal);
-    let mut out_of_range = Vec::new();
-    flag_range(&mut out_of_range, "moisture_wb", x, *moisture_range_wb, "this material's moisture model");
-    flag_range(&mut out_of_range, "temp_c", temp_c, *temp_range_c, "this material's moisture model");
-    flag_range(&mut out_of_range, "freq_mhz", frequency_hz / 1e6, *freq_range_mhz, "this material's moisture model");
     let (v_solid, v_water, v_air, _) =
         moist_fractions(*dry_bulk_density_kg_per_m3, *solid_density_kg_per_m3, x, temp_c);
     let salt = salt_pct.unwrap_or(*default_salt) / 100.0;
@@ -162,17 +164,69 @@ pub(crate) fn moist_value(
         brine_fraction.min(saline::SATURATION_MASS_FRACTION),
         conductivity_s_per_m,
     );
-    let mut notes = vec![format!("volume fractions: solid {v_solid:.3}, water {v_water:.3}, air {v_air:.3}")];
-    if brine_fraction > saline::SATURATION_MASS_FRACTION {
-        notes.push("the water is saturated with salt; the excess is taken as undissolved".into());
-    }
     let solid = Complex::new(*solid_eps_real, -solid_eps_imag);
     let eps = mix(&[(v_solid, solid), (v_water, brine.eps), (v_air, Complex::ONE)], *mixing_rule);
-    Some(ModelValue {
+    Some(MoistParts {
+        moisture_wb: x,
+        volume_fractions: (v_solid, v_water, v_air),
+        salt_fraction: salt,
+        saturated: brine_fraction > saline::SATURATION_MASS_FRACTION,
         eps,
+    })
+}
+
+/// The moist model's permittivity alone (see [`moist_value`]).
+pub(crate) fn moist_eps(
+    model: &DielectricModel,
+    frequency_hz: f64,
+    temp_c: f64,
+    moisture_wb: Option<f64>,
+    salt_pct: Option<f64>,
+    conductivity_s_per_m: Option<f64>,
+) -> Option<Complex> {
+    moist_parts(model, frequency_hz, temp_c, moisture_wb, salt_pct, conductivity_s_per_m).map(|parts| parts.eps)
+}
+
+pub(crate) fn moist_value(
+    model: &DielectricModel,
+    frequency_hz: f64,
+    temp_c: f64,
+    moisture_wb: Option<f64>,
+    salt_pct: Option<f64>,
+    conductivity_s_per_m: Option<f64>,
+) -> Option<ModelValue> {
+    let parts = moist_parts(model, frequency_hz, temp_c, moisture_wb, salt_pct, conductivity_s_per_m)?;
+    let DielectricModel::Moist {
+        solid_eps_real,
+        solid_eps_imag,
+        mixing_rule,
+        moisture_range_wb,
+        temp_range_c,
+        freq_range_mhz,
+        ..
+    } = model
+    else {
+        return None;
+    };
+    let mut out_of_range = Vec::new();
+    let x = parts.moisture_wb;
+    flag_range(&mut out_of_range, "moisture_wb", x, *moisture_range_wb, "this material's moisture model");
+    flag_range(&mut out_of_range, "temp_c", temp_c, *temp_range_c, "this material's moisture model");
+    flag_range(&mut out_of_range, "freq_mhz", frequency_hz / 1e6, *freq_range_mhz, "this material's moisture model");
+    let (v_solid, v_water, v_air) = parts.volume_fractions;
+    let mut notes = vec![format!("volume fractions: solid {v_solid:.3}, water {v_water:.3}, air {v_air:.3}")];
+    if parts.saturated {
+        notes.push("the water is saturated with salt; the excess is taken as undissolved".into());
+    }
+    Some(ModelValue {
+        eps: parts.eps,
         model: format!(
             "moist mixture: solid eps {solid_eps_real} - j{solid_eps_imag}, water by {WATER_MODEL}{}, air; {}",
-            if salt > 0.0 || conductivity_s_per_m.is_some() { format!(" with {SALINE_MODEL}") } else { String::new() },
+            if parts.salt_fraction > 0.0 || conductivity_s_per_m.is_some() {
+                format!(" with {SALINE_MODEL}")
+            } else {
+                String::new()
+            },
             mixing_rule.citation()
         ),
         out_of_range,
@@ -245,32 +299,28 @@ pub(crate) fn frozen_phases(food: &Composition, tf_c: Option<f64>, temp_c: f64, 
     }
 }
 
-#[allow(clippy::too_many_arguments)]
-pub(crate) fn frozen_value(
+/// The numbers of the frozen-food model at one state, before any text is written.
+struct FrozenParts {
+    food: Composition,
+    freezing_point_c: Option<f64>,
+    phases: FrozenPhases,
+    brine_conductivity_s_per_m: f64,
+    eps: Complex,
+}
+
+fn frozen_parts(
     material: &Material,
     frequency_hz: f64,
     temp_c: f64,
     moisture_wb: Option<f64>,
     salt_pct: Option<f64>,
-) -> Option<ModelValue> {
-    let DielectricModel::Frozen {
-        solids_eps_real,
-        solids_eps_imag,
-        salt_pct: default_salt,
-        mixing_rule,
-        temp_range_c,
-        freq_range_mhz,
-        moisture_range_wb,
-        ..
-    } = &material.dielectric
+) -> Option<FrozenParts> {
+    let DielectricModel::Frozen { solids_eps_real, solids_eps_imag, salt_pct: default_salt, mixing_rule, .. } =
+        &material.dielectric
     else {
         return None;
     };
     let (food, tf) = food_state(material, moisture_wb)?;
-    let mut out_of_range = Vec::new();
-    flag_range(&mut out_of_range, "temp_c", temp_c, *temp_range_c, "this food's freezing model");
-    flag_range(&mut out_of_range, "freq_mhz", frequency_hz / 1e6, *freq_range_mhz, "this food's freezing model");
-    flag_range(&mut out_of_range, "moisture_wb", food.water, *moisture_range_wb, "this food's freezing model");
     let salt_fraction = salt_pct.unwrap_or(*default_salt) / 100.0;
     let phases = frozen_phases(&food, tf, temp_c, salt_fraction);
     let brine = saline::permittivity(frequency_hz, temp_c, phases.brine_mass_fraction, None);
@@ -280,6 +330,51 @@ pub(crate) fn frozen_value(
         &[(phases.ice, ice_eps), (phases.brine, brine.eps), (phases.fat, FAT_EPS), (phases.solids, solids)],
         *mixing_rule,
     );
+    Some(FrozenParts {
+        food,
+        freezing_point_c: tf,
+        phases,
+        brine_conductivity_s_per_m: brine.conductivity_s_per_m,
+        eps,
+    })
+}
+
+/// The frozen-food model's permittivity alone (see [`frozen_value`]).
+pub(crate) fn frozen_eps(
+    material: &Material,
+    frequency_hz: f64,
+    temp_c: f64,
+    moisture_wb: Option<f64>,
+    salt_pct: Option<f64>,
+) -> Option<Complex> {
+    frozen_parts(material, frequency_hz, temp_c, moisture_wb, salt_pct).map(|parts| parts.eps)
+}
+
+pub(crate) fn frozen_value(
+    material: &Material,
+    frequency_hz: f64,
+    temp_c: f64,
+    moisture_wb: Option<f64>,
+    salt_pct: Option<f64>,
+) -> Option<ModelValue> {
+    let FrozenParts { food, freezing_point_c: tf, phases, brine_conductivity_s_per_m, eps } =
+        frozen_parts(material, frequency_hz, temp_c, moisture_wb, salt_pct)?;
+    let DielectricModel::Frozen {
+        solids_eps_real,
+        solids_eps_imag,
+        mixing_rule,
+        temp_range_c,
+        freq_range_mhz,
+        moisture_range_wb,
+        ..
+    } = &material.dielectric
+    else {
+        return None;
+    };
+    let mut out_of_range = Vec::new();
+    flag_range(&mut out_of_range, "temp_c", temp_c, *temp_range_c, "this food's freezing model");
+    flag_range(&mut out_of_range, "freq_mhz", frequency_hz / 1e6, *freq_range_mhz, "this food's freezing model");
+    flag_range(&mut out_of_range, "moisture_wb", food.water, *moisture_range_wb, "this food's freezing model");
     let frozen = tf.map_or(0.0, |tf| freezing::frozen_fraction_of_water(&food, tf, temp_c));
     let notes = vec![
         format!(
@@ -289,7 +384,7 @@ pub(crate) fn frozen_value(
         format!(
             "frozen fraction of the water {frozen:.3}; unfrozen brine {:.2} % NaCl-equivalent, conductivity {:.3} S/m",
             100.0 * phases.brine_mass_fraction,
-            brine.conductivity_s_per_m
+            brine_conductivity_s_per_m
         ),
     ];
     Some(ModelValue {

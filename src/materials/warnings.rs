@@ -15,7 +15,7 @@
 //! beyond 3 Dp the core is heated mainly by conduction.
 
 use crate::error::{require_positive, InputError};
-use crate::materials::{permittivity, Material, MaterialState};
+use crate::materials::{permittivity_value, Material, MaterialState};
 use serde::Serialize;
 
 /// Ratio of rise below which eps'' is taken as flat.
@@ -73,9 +73,10 @@ pub fn runaway_risk(
     state_from: &MaterialState,
     state_to: &MaterialState,
 ) -> Result<Option<RunawayRisk>, InputError> {
-    // Validate both ends through the lookup (it names the field and range).
-    permittivity(material, frequency_hz, state_from)?;
-    permittivity(material, frequency_hz, state_to)?;
+    // Validate both ends through the lookup (it names the field and range); only eps'' is read, so
+    // the lookups skip their texts.
+    permittivity_value(material, frequency_hz, state_from)?;
+    permittivity_value(material, frequency_hz, state_to)?;
     let (low, high) = if state_from.temp_c <= state_to.temp_c {
         (state_from.temp_c, state_to.temp_c)
     } else {
@@ -87,7 +88,7 @@ pub fn runaway_risk(
     for i in 0..count {
         let temp_c = low + span * i as f64 / (count - 1) as f64;
         let state = MaterialState { temp_c, ..*state_from };
-        samples.push((temp_c, permittivity(material, frequency_hz, &state)?.eps.eps_imag));
+        samples.push((temp_c, permittivity_value(material, frequency_hz, &state)?.eps_imag));
     }
     // Find the rising stretch (consecutive samples with rising eps'') with the largest ratio.
     let mut best: Option<(usize, usize, f64)> = None;

@@ -120,12 +120,14 @@ use crate::error::{require_in, require_positive, InputError};
 use crate::physics::complex::Complex;
 use crate::physics::constants::SPEED_OF_LIGHT_M_PER_S;
 use crate::physics::permittivity::ComplexPermittivity;
+use sampling::LayerSamples;
 use serde::{Deserialize, Deserializer, Serialize};
 use std::f64::consts::PI;
 use std::fmt;
 
 #[cfg(test)]
 mod reference_tmm;
+mod sampling;
 #[cfg(test)]
 mod tests;
 
@@ -352,10 +354,10 @@ pub fn validate_stack(layers: &[Layer], backing: Backing) -> Result<(), InputErr
         return Err(InputError::new("layers", format!("{} layers", layers.len()), format!("1 to {LAYERS_MAX} layers")));
     }
     for (index, layer) in layers.iter().enumerate() {
-        let prefix = format!("layers[{index}]");
-        require_positive("thickness_m", layer.thickness_m, THICKNESS_MAX_M).map_err(|error| error.within(&prefix))?;
-        ComplexPermittivity::checked(layer.permittivity.eps_real, layer.permittivity.eps_imag)
-            .map_err(|error| error.within(&prefix))?;
+        // The prefix is written only on failure: a march validates a stack per zone.
+        let within = |error: InputError| error.within(&format!("layers[{index}]"));
+        require_positive("thickness_m", layer.thickness_m, THICKNESS_MAX_M).map_err(within)?;
+        ComplexPermittivity::checked(layer.permittivity.eps_real, layer.permittivity.eps_imag).map_err(within)?;
     }
     if let Backing::Material(eps) = backing {
         ComplexPermittivity::checked(eps.eps_real, eps.eps_imag).map_err(|error| error.within("backing"))?;
@@ -416,9 +418,19 @@ struct Slab {
     eps_imag: f64,
 }
 
+impl Slab {
+    /// The same slab to the last bit (so that solving either gives the same numbers).
+    fn same_bits(&self, other: &Slab) -> bool {
+        let bits = |slab: &Slab| {
+            [slab.thickness_m.to_bits(), slab.index.re.to_bits(), slab.index.im.to_bits(), slab.eps_imag.to_bits()]
+        };
+        bits(self) == bits(other)
+    }
+}
+
 /// A one-sided solution: the wave amplitudes in each slab, in the order the wave meets them.
+#[derive(Clone)]
 struct OneSided {
-    k0: f64,
     /// Amplitude reflection coefficient r at the entry face (read by the identity tests).
     #[cfg_attr(not(test), allow(dead_code))]
     reflection: Complex,
@@ -444,37 +456,37 @@ fn fresnel(from: Complex, to: Complex) -> Complex {
 fn solve_one_sided(k0: f64, incident: Complex, slabs: &[Slab], exit: Exit) -> OneSided {
     let count = slabs.len();
     // Pass 1, bottom to top: G at the bottom face of each slab, and G at its top face.
-    let mut bottom_ratio = vec![Complex::ZERO; count];
-    let mut top_ratio = vec![Complex::ZERO; count];
+    let mut ratios = vec![(Complex::ZERO, Complex::ZERO); count];
     for index in (0..count).rev() {
         let slab = slabs[index];
-        bottom_ratio[index] = if index + 1 == count {
+        let bottom_ratio = if index + 1 == count {
             match exit {
                 Exit::Medium(exit_index) => fresnel(slab.index, exit_index),
                 Exit::Short => -Complex::ONE,
             }
         } else {
             let interface = fresnel(slab.index, slabs[index + 1].index);
-            let below = top_ratio[index + 1];
+            let below = ratios[index + 1].1;
             (interface + below) / (Complex::ONE + interface * below)
         };
         let round_trip = propagator(k0, slab.index, 2.0 * slab.thickness_m);
-        top_ratio[index] = bottom_ratio[index] * round_trip;
+        ratios[index] = (bottom_ratio, bottom_ratio * round_trip);
     }
+    let top_ratio = |index: usize| ratios[index].1;
     let entry = fresnel(incident, slabs[0].index);
-    let reflection = (entry + top_ratio[0]) / (Complex::ONE + entry * top_ratio[0]);
+    let reflection = (entry + top_ratio(0)) / (Complex::ONE + entry * top_ratio(0));
 
     // Pass 2, top to bottom: forward amplitudes from the continuity of E and H.
     let mut amplitudes = Vec::with_capacity(count);
-    let mut forward = (Complex::ONE + entry) / (Complex::ONE + entry * top_ratio[0]);
+    let mut forward = (Complex::ONE + entry) / (Complex::ONE + entry * top_ratio(0));
     let mut exit_forward = Complex::ZERO;
     for index in 0..count {
         let slab = slabs[index];
         let at_bottom = forward * propagator(k0, slab.index, slab.thickness_m);
-        amplitudes.push((forward, bottom_ratio[index] * at_bottom));
+        amplitudes.push((forward, ratios[index].0 * at_bottom));
         if index + 1 < count {
             let interface = fresnel(slab.index, slabs[index + 1].index);
-            forward = at_bottom * (Complex::ONE + interface) / (Complex::ONE + interface * top_ratio[index + 1]);
+            forward = at_bottom * (Complex::ONE + interface) / (Complex::ONE + interface * top_ratio(index + 1));
         } else if let Exit::Medium(exit_index) = exit {
             exit_forward = at_bottom * (Complex::ONE + fresnel(slab.index, exit_index));
         }
@@ -493,7 +505,7 @@ fn solve_one_sided(k0: f64, incident: Complex, slabs: &[Slab], exit: Exit) -> On
         .zip(&amplitudes)
         .map(|(slab, &(forward, backward))| slab_absorptance(k0, *slab, forward, backward) / incident_index_re)
         .collect();
-    OneSided { k0, reflection, reflectance, transmittance, incident_index_re, amplitudes, absorptances }
+    OneSided { reflection, reflectance, transmittance, incident_index_re, amplitudes, absorptances }
 }
 
 /// k0 eps'' times the exact integral of |E|^2 over the slab (per unit incident |E|^2).
@@ -512,19 +524,6 @@ fn slab_absorptance(k0: f64, slab: Slab, forward: Complex, backward: Complex) ->
     (k0 * slab.eps_imag * integral).max(0.0)
 }
 
-impl OneSided {
-    /// p / S_inc at local depth u of slab `index`, 1/m.
-    fn power_density(&self, slab: Slab, index: usize, depth_in_slab_m: f64) -> f64 {
-        if slab.eps_imag == 0.0 {
-            return 0.0;
-        }
-        let (forward, backward) = self.amplitudes[index];
-        let field = forward * propagator(self.k0, slab.index, depth_in_slab_m)
-            + backward * propagator(self.k0, slab.index, slab.thickness_m - depth_in_slab_m);
-        self.k0 * slab.eps_imag * field.norm_sqr() / self.incident_index_re
-    }
-}
-
 fn slab_of(layer: &Layer) -> Slab {
     Slab {
         thickness_m: layer.thickness_m,
@@ -533,14 +532,26 @@ fn slab_of(layer: &Layer) -> Slab {
     }
 }
 
-/// Solve without the uniformity assessment (the part [`solve_stack_with`] adds).
-fn solve_unassessed(
+/// The one-sided solutions of a stack and what they give per layer, before any sampling.
+struct Solved {
+    k0: f64,
+    slabs: Vec<Slab>,
+    /// (side, share of the incident power, solution); the bottom-fed solution holds its slabs in
+    /// reverse order.
+    sides: Vec<(FeedSide, f64, OneSided)>,
+    /// Per layer in the order given, as fractions of the total incident power.
+    absorptances: Vec<f64>,
+    reflectance: f64,
+    transmittance: f64,
+}
+
+fn solve_sides(
     frequency_hz: f64,
     layers: &[Layer],
     backing: Backing,
     feed: Feed,
     samples_per_layer: usize,
-) -> Result<StackSolution, InputError> {
+) -> Result<Solved, InputError> {
     validate_request(frequency_hz, layers, backing, feed, samples_per_layer)?;
     let k0 = 2.0 * PI * frequency_hz / SPEED_OF_LIGHT_M_PER_S;
     let slabs: Vec<Slab> = layers.iter().map(slab_of).collect();
@@ -551,8 +562,7 @@ fn solve_unassessed(
         Backing::Material(eps) => Some(eps.refractive_index()),
     };
 
-    // (side, share, solution); the bottom-fed solution holds its slabs in reverse order.
-    let mut solved: Vec<(FeedSide, f64, OneSided)> = Vec::new();
+    let mut sides: Vec<(FeedSide, f64, OneSided)> = Vec::with_capacity(2);
     let top_share = match feed {
         Feed::Top => Some(1.0),
         Feed::BothSides => Some(0.5),
@@ -565,20 +575,29 @@ fn solve_unassessed(
     };
     if let Some(share) = top_share {
         let exit = backing_index.map_or(Exit::Short, Exit::Medium);
-        solved.push((FeedSide::Top, share, solve_one_sided(k0, air, &slabs, exit)));
+        sides.push((FeedSide::Top, share, solve_one_sided(k0, air, &slabs, exit)));
     }
     if let (Some(share), Some(incident)) = (bottom_share, backing_index) {
-        let reversed: Vec<Slab> = slabs.iter().rev().copied().collect();
-        let one = solve_one_sided(k0, incident, &reversed, Exit::Medium(air));
-        solved.push((FeedSide::Bottom, share, one));
+        // Air on both sides and a stack that reads the same both ways (one bed of product): the
+        // feed from below is the feed from above, number for number.
+        let mirrored = incident.re.to_bits() == air.re.to_bits()
+            && incident.im.to_bits() == air.im.to_bits()
+            && slabs.iter().zip(slabs.iter().rev()).all(|(a, b)| a.same_bits(b));
+        let one = match sides.first() {
+            Some((_, _, top)) if mirrored => top.clone(),
+            _ => {
+                let reversed: Vec<Slab> = slabs.iter().rev().copied().collect();
+                solve_one_sided(k0, incident, &reversed, Exit::Medium(air))
+            }
+        };
+        sides.push((FeedSide::Bottom, share, one));
     }
 
     let count = layers.len();
     let mut absorptances = vec![0.0; count];
     let mut reflectance = 0.0;
     let mut transmittance = 0.0;
-    let mut sides = Vec::new();
-    for (side, share, one) in &solved {
+    for (side, share, one) in &sides {
         for (position, absorbed) in one.absorptances.iter().enumerate() {
             let layer_index = match side {
                 FeedSide::Top => position,
@@ -588,62 +607,62 @@ fn solve_unassessed(
         }
         reflectance += share * one.reflectance;
         transmittance += share * one.transmittance;
-        sides.push(SideResult {
+    }
+    Ok(Solved { k0, slabs, sides, absorptances, reflectance, transmittance })
+}
+
+/// Solve without the uniformity assessment (the part [`solve_stack_with`] adds).
+fn solve_unassessed(
+    frequency_hz: f64,
+    layers: &[Layer],
+    backing: Backing,
+    feed: Feed,
+    samples_per_layer: usize,
+) -> Result<StackSolution, InputError> {
+    let solved = solve_sides(frequency_hz, layers, backing, feed, samples_per_layer)?;
+    let sides = solved
+        .sides
+        .iter()
+        .map(|(side, share, one)| SideResult {
             side: *side,
             incident_share: *share,
             reflectance: one.reflectance,
             transmittance: one.transmittance,
             absorptance: one.absorptances.iter().sum(),
-        });
-    }
+        })
+        .collect();
 
+    let count = layers.len();
     let mut layer_results = Vec::with_capacity(count);
     let mut depth_profile = Vec::with_capacity(count * samples_per_layer);
     let mut top_depth_m = 0.0;
     for (layer_index, layer) in layers.iter().enumerate() {
-        let slab = slabs[layer_index];
-        for sample in 0..samples_per_layer {
-            // Exact faces at both ends: the last sample sits on the bottom face, not near it.
-            let local_m = if sample + 1 == samples_per_layer {
-                slab.thickness_m
-            } else {
-                slab.thickness_m * sample as f64 / (samples_per_layer - 1) as f64
-            };
-            let mut density = 0.0;
-            for (side, share, one) in &solved {
-                density += share
-                    * match side {
-                        FeedSide::Top => one.power_density(slab, layer_index, local_m),
-                        FeedSide::Bottom => {
-                            one.power_density(slab, count - 1 - layer_index, slab.thickness_m - local_m)
-                        }
-                    };
-            }
+        LayerSamples::new(&solved, layer_index, samples_per_layer).each(|local_m, density| {
             depth_profile.push(DepthSample {
                 depth_m: top_depth_m + local_m,
                 layer: layer_index,
                 power_density_per_incident_flux_per_m: density,
             });
-        }
+        });
         layer_results.push(LayerResult {
             name: layer.name.clone(),
             thickness_m: layer.thickness_m,
             top_depth_m,
             is_product: layer.is_product,
-            absorptance: absorptances[layer_index],
+            absorptance: solved.absorptances[layer_index],
         });
         top_depth_m += layer.thickness_m;
     }
 
-    let absorptance = absorptances.iter().sum();
+    let absorptance = solved.absorptances.iter().sum();
     let product_absorptance =
         layer_results.iter().filter(|layer| layer.is_product).map(|layer| layer.absorptance).sum();
     Ok(StackSolution {
         frequency_hz,
         feed,
         samples_per_layer,
-        reflectance,
-        transmittance,
+        reflectance: solved.reflectance,
+        transmittance: solved.transmittance,
         absorptance,
         product_absorptance,
         layers: layer_results,
@@ -665,7 +684,9 @@ pub struct ProductOptics {
     pub max_product_power_density_per_m: Option<f64>,
 }
 
-/// Solve a stack for [`ProductOptics`] only.
+/// Solve a stack for [`ProductOptics`] only: the numbers [`solve_stack`] gives, bit for bit,
+/// without building the profile, the layer results or any text, and with the product's peak found
+/// by evaluating only the samples that can hold it (see `sampling`).
 pub fn product_optics(
     frequency_hz: f64,
     layers: &[Layer],
@@ -673,14 +694,14 @@ pub fn product_optics(
     feed: Feed,
     samples_per_layer: usize,
 ) -> Result<ProductOptics, InputError> {
-    let solution = solve_unassessed(frequency_hz, layers, backing, feed, samples_per_layer)?;
-    let max_product_power_density_per_m = solution
-        .depth_profile
-        .iter()
-        .filter(|sample| layers.get(sample.layer).is_some_and(|layer| layer.is_product))
-        .map(|sample| sample.power_density_per_incident_flux_per_m)
+    let solved = solve_sides(frequency_hz, layers, backing, feed, samples_per_layer)?;
+    let product_absorptance =
+        layers.iter().zip(&solved.absorptances).filter(|(layer, _)| layer.is_product).map(|(_, a)| *a).sum();
+    let max_product_power_density_per_m = (0..layers.len())
+        .filter(|&layer_index| layers[layer_index].is_product)
+        .map(|layer_index| LayerSamples::new(&solved, layer_index, samples_per_layer).peak())
         .reduce(f64::max);
-    Ok(ProductOptics { product_absorptance: solution.product_absorptance, max_product_power_density_per_m })
+    Ok(ProductOptics { product_absorptance, max_product_power_density_per_m })
 }
 
 /// Solve a stack and assess its uniformity with the given settings instead of the defaults.

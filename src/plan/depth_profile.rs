@@ -73,14 +73,29 @@ pub fn depth_profile(
         .map_err(|error| error.within("tunnel.load_stack"))
 }
 
-/// The product's absorptance and peak power density only, with the same sampling as
-/// [`depth_profile`] (for the zone march, which needs them once per zone state).
-pub fn bed_optics(
-    scenario: &Scenario,
-    frequency_hz: f64,
-    product_eps: ComplexPermittivity,
-) -> Result<ProductOptics, InputError> {
-    let (layers, backing, feed) = stack(scenario, product_eps);
-    product_optics(frequency_hz, &layers, backing, feed, SAMPLES_PER_LAYER)
-        .map_err(|error| error.within("tunnel.load_stack"))
+/// The bed as a zone march solves it, zone after zone: the stack is built once from the scenario
+/// and only the product's permittivity changes between solves.
+pub struct Bed {
+    /// Product first, then what lies below it.
+    layers: Vec<Layer>,
+    backing: Backing,
+    feed: Feed,
+}
+
+impl Bed {
+    /// The scenario's bed (its product's permittivity is set by each solve).
+    pub fn new(scenario: &Scenario) -> Self {
+        let (layers, backing, feed) = stack(scenario, ComplexPermittivity::VACUUM);
+        Bed { layers, backing, feed }
+    }
+
+    /// The product's absorptance and peak power density at permittivity `product_eps`, with the
+    /// same sampling as [`depth_profile`].
+    pub fn optics(&mut self, frequency_hz: f64, product_eps: ComplexPermittivity) -> Result<ProductOptics, InputError> {
+        if let Some(product) = self.layers.first_mut() {
+            product.permittivity = product_eps;
+        }
+        product_optics(frequency_hz, &self.layers, self.backing, self.feed, SAMPLES_PER_LAYER)
+            .map_err(|error| error.within("tunnel.load_stack"))
+    }
 }

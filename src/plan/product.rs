@@ -9,6 +9,7 @@
 
 use crate::error::InputError;
 use crate::materials::{self, Material, MaterialState, PermittivityLookup};
+use crate::physics::permittivity::ComplexPermittivity;
 use crate::scenario::Scenario;
 use crate::sizing::energy_balance::ProductThermal;
 
@@ -64,10 +65,7 @@ impl Product {
         temp_c: f64,
         moisture_wb: f64,
     ) -> Result<PermittivityLookup, InputError> {
-        let multiplier = self.loss_factor_multiplier;
-        if !(multiplier.is_finite() && multiplier >= 0.0) {
-            return Err(InputError::new("loss_factor_multiplier", multiplier, "a finite factor of 0 or more"));
-        }
+        let multiplier = self.checked_multiplier()?;
         let mut lookup = materials::permittivity(&self.material, frequency_hz, &self.state(temp_c, moisture_wb))?;
         // An exact 1 is the plain plan: leave the lookup untouched, bit for bit.
         if multiplier != 1.0 {
@@ -75,6 +73,30 @@ impl Product {
             lookup.model = format!("{} (eps'' x {multiplier})", lookup.model);
         }
         Ok(lookup)
+    }
+
+    /// The permittivity of [`Product::permittivity`] alone, without the lookup's texts (for the
+    /// zone march, which reads only the number at hundreds of states).
+    pub fn permittivity_value(
+        &self,
+        frequency_hz: f64,
+        temp_c: f64,
+        moisture_wb: f64,
+    ) -> Result<ComplexPermittivity, InputError> {
+        let multiplier = self.checked_multiplier()?;
+        let mut eps = materials::permittivity_value(&self.material, frequency_hz, &self.state(temp_c, moisture_wb))?;
+        if multiplier != 1.0 {
+            eps.eps_imag *= multiplier;
+        }
+        Ok(eps)
+    }
+
+    fn checked_multiplier(&self) -> Result<f64, InputError> {
+        let multiplier = self.loss_factor_multiplier;
+        if !(multiplier.is_finite() && multiplier >= 0.0) {
+            return Err(InputError::new("loss_factor_multiplier", multiplier, "a finite factor of 0 or more"));
+        }
+        Ok(multiplier)
     }
 }
 
@@ -126,6 +148,18 @@ mod tests {
             plain.model,
             materials::permittivity(&beef(1.0).material, 915e6, &beef(1.0).state(10.0, 0.74)).unwrap().model
         );
+    }
+
+    #[test]
+    fn the_value_alone_is_the_lookups_value() {
+        for multiplier in [0.0, 0.8, 1.0, 1.2] {
+            for temp_c in [-18.0, -4.0, 10.0] {
+                let product = beef(multiplier);
+                let lookup = product.permittivity(915e6, temp_c, 0.74).unwrap();
+                assert_eq!(product.permittivity_value(915e6, temp_c, 0.74).unwrap(), lookup.eps);
+            }
+        }
+        assert_eq!(beef(-1.0).permittivity_value(915e6, 10.0, 0.74).unwrap_err().field, "loss_factor_multiplier");
     }
 
     #[test]

@@ -89,12 +89,12 @@
 //! or through the depth, no surface cooling distributed along the tunnel (the allowances are
 //! taken off in proportion), no moisture gradient through the bed.
 
-use super::depth_profile::bed_optics;
+use super::depth_profile::Bed;
 use super::product::Product;
 use super::warnings::Warning;
 use super::Zone;
 use crate::error::InputError;
-use crate::materials::{TEMP_MAX_C, TEMP_MIN_C};
+use crate::materials::{EnthalpyCurve, TEMP_MAX_C, TEMP_MIN_C};
 use crate::physics::heating::field_for_power_density_v_per_m;
 use crate::physics::permittivity::ComplexPermittivity;
 use crate::physics::waves::penetration_depth_m;
@@ -249,7 +249,10 @@ struct Point {
 
 /// The balance's path, parametrised by the net energy e added per kg of product in, J/kg.
 struct Path<'a> {
-    product: &'a Product,
+    /// H(T) of the wet product (x_in), and of the dried product (x_out; x_in when nothing dries),
+    /// prepared once for the root searches.
+    wet_enthalpy: EnthalpyCurve<'a>,
+    dried_enthalpy: EnthalpyCurve<'a>,
     drying: bool,
     inlet_temp_c: f64,
     inlet_moisture_wb: f64,
@@ -283,34 +286,39 @@ impl<'a> Path<'a> {
         let enthalpy = |temp_c: f64, moisture: f64| product.material.enthalpy_j_per_kg(temp_c, Some(moisture));
         let (t_in, t_out, t_e) = (scenario.inlet.temp_c, scenario.outlet.temp_c, input.evaporation_temp_c);
         let inlet_enthalpy = enthalpy(t_in, x_in)?;
-        let mut path = Path {
-            product,
+        let outlet_moisture_wb = if drying { x_out } else { x_in };
+        // (heat_one, evaporate, dried_enthalpy_at_evaporation, heat_three, out_per_in, water_total)
+        let stages = if drying {
+            let out_per_in = (1.0 - x_in) / (1.0 - x_out);
+            let water_total = 1.0 - out_per_in;
+            let heat_one = enthalpy(t_e, x_in)? - inlet_enthalpy;
+            let evaporate = water_total * input.latent_heat_j_per_kg;
+            let dried_enthalpy_at_evaporation = enthalpy(t_e, x_out)?;
+            let heat_three = out_per_in * (enthalpy(t_out, x_out)? - dried_enthalpy_at_evaporation).max(0.0);
+            (heat_one, evaporate, dried_enthalpy_at_evaporation, heat_three, out_per_in, water_total)
+        } else {
+            (enthalpy(t_out, x_in)? - inlet_enthalpy, 0.0, 0.0, 0.0, 1.0, 0.0)
+        };
+        let (heat_one, evaporate, dried_enthalpy_at_evaporation, heat_three, out_per_in, water_total) = stages;
+        Ok(Path {
+            // Both moistures have just been read through the same checks, so neither can fail here.
+            wet_enthalpy: product.material.enthalpy_curve(Some(x_in))?,
+            dried_enthalpy: product.material.enthalpy_curve(Some(outlet_moisture_wb))?,
             drying,
             inlet_temp_c: t_in,
             inlet_moisture_wb: x_in,
             evaporation_temp_c: t_e,
             outlet_temp_c: t_out,
-            outlet_moisture_wb: if drying { x_out } else { x_in },
+            outlet_moisture_wb,
             latent_heat_j_per_kg: input.latent_heat_j_per_kg,
             inlet_enthalpy,
-            dried_enthalpy_at_evaporation: 0.0,
-            heat_one: 0.0,
-            evaporate: 0.0,
-            heat_three: 0.0,
-            out_per_in: 1.0,
-            water_total: 0.0,
-        };
-        if drying {
-            path.out_per_in = (1.0 - x_in) / (1.0 - x_out);
-            path.water_total = 1.0 - path.out_per_in;
-            path.heat_one = enthalpy(t_e, x_in)? - inlet_enthalpy;
-            path.evaporate = path.water_total * input.latent_heat_j_per_kg;
-            path.dried_enthalpy_at_evaporation = enthalpy(t_e, x_out)?;
-            path.heat_three = path.out_per_in * (enthalpy(t_out, x_out)? - path.dried_enthalpy_at_evaporation).max(0.0);
-        } else {
-            path.heat_one = enthalpy(t_out, x_in)? - inlet_enthalpy;
-        }
-        Ok(path)
+            dried_enthalpy_at_evaporation,
+            heat_one,
+            evaporate,
+            heat_three,
+            out_per_in,
+            water_total,
+        })
     }
 
     /// Net energy per kg in over the whole path (the balance's process heat per kg), J/kg.
@@ -329,8 +337,8 @@ impl<'a> Path<'a> {
         // The first heating stage: all of the path when nothing dries, else up to the boiling point.
         if !self.drying || (self.heat_one > 0.0 && energy < self.heat_one) {
             let stage_end_c = if self.drying { self.evaporation_temp_c } else { self.outlet_temp_c };
-            let temp_c = self.temperature_at(
-                self.inlet_moisture_wb,
+            let temp_c = temperature_at_enthalpy(
+                |temp_c| self.wet_enthalpy.enthalpy_j_per_kg(temp_c),
                 self.inlet_enthalpy + energy,
                 (self.inlet_temp_c, self.inlet_enthalpy),
                 (stage_end_c, self.inlet_enthalpy + self.heat_one),
@@ -356,8 +364,8 @@ impl<'a> Path<'a> {
         }
         let dried = (after_heating - self.evaporate).min(self.heat_three);
         let dried_enthalpy = self.dried_enthalpy_at_evaporation;
-        let temp_c = self.temperature_at(
-            self.outlet_moisture_wb,
+        let temp_c = temperature_at_enthalpy(
+            |temp_c| self.dried_enthalpy.enthalpy_j_per_kg(temp_c),
             dried_enthalpy + dried / self.out_per_in,
             (self.evaporation_temp_c, dried_enthalpy),
             (self.outlet_temp_c, dried_enthalpy + self.heat_three / self.out_per_in),
@@ -368,23 +376,6 @@ impl<'a> Path<'a> {
             water_removed_per_kg_in: self.water_total,
             stage: Stage::HeatingDried,
         })
-    }
-
-    /// The temperature in a stage from `start` to `end` (temperature, enthalpy at it: the stage's
-    /// ends are known, so the search spends no evaluations on them).
-    fn temperature_at(
-        &self,
-        moisture_wb: f64,
-        target_j_per_kg: f64,
-        start: (f64, f64),
-        end: (f64, f64),
-    ) -> Result<f64, InputError> {
-        temperature_at_enthalpy(
-            |temp_c| self.product.material.enthalpy_j_per_kg(temp_c, Some(moisture_wb)),
-            target_j_per_kg,
-            start,
-            end,
-        )
     }
 }
 
@@ -459,9 +450,11 @@ struct Marcher<'a> {
     input: MarchInput<'a>,
     path: Path<'a>,
     capacitive: bool,
+    /// The bed's stack, built once for all zones and passes.
+    bed: Bed,
     /// Layered solutions by permittivity: a product whose permittivity does not change along the
     /// tunnel (a constant or a flat table) is solved once, not once per zone and pass.
-    optics_by_eps: RefCell<HashMap<(u64, u64), Optics>>,
+    optics_by_eps: HashMap<(u64, u64), Optics>,
     /// eps'' on the whole-kelvin grid of the runaway windows, by (moisture, temperature).
     loss_on_grid: RefCell<HashMap<(u64, i32), f64>>,
 }
@@ -492,20 +485,19 @@ impl Marcher<'_> {
         Ok(States { boundaries, midpoints })
     }
 
-    fn optics(&self, point: &Point) -> Result<Optics, InputError> {
+    fn optics(&mut self, point: &Point) -> Result<Optics, InputError> {
         let input = &self.input;
-        let lookup = input.product.permittivity(input.frequency_hz, point.temp_c, point.moisture_wb)?;
-        let eps = lookup.eps;
+        let eps = input.product.permittivity_value(input.frequency_hz, point.temp_c, point.moisture_wb)?;
         let key = (eps.eps_real.to_bits(), eps.eps_imag.to_bits());
-        if let Some(optics) = self.optics_by_eps.borrow().get(&key) {
+        if let Some(optics) = self.optics_by_eps.get(&key) {
             return Ok(*optics);
         }
         let optics = self.optics_uncached(eps)?;
-        self.optics_by_eps.borrow_mut().insert(key, optics);
+        self.optics_by_eps.insert(key, optics);
         Ok(optics)
     }
 
-    fn optics_uncached(&self, eps: ComplexPermittivity) -> Result<Optics, InputError> {
+    fn optics_uncached(&mut self, eps: ComplexPermittivity) -> Result<Optics, InputError> {
         let input = &self.input;
         if self.capacitive {
             return Ok(Optics {
@@ -515,7 +507,7 @@ impl Marcher<'_> {
                 peak_to_mean: (eps.eps_imag > 0.0).then_some(1.0),
             });
         }
-        let optics = bed_optics(input.scenario, input.frequency_hz, eps)?;
+        let optics = self.bed.optics(input.frequency_hz, eps)?;
         let absorptance = clean_fraction(optics.product_absorptance);
         let bed_m = input.scenario.tunnel.bed_depth_m;
         // Mean of p / S_inc over the product is its absorptance over its thickness.
@@ -566,7 +558,7 @@ impl Marcher<'_> {
             return Ok(*loss);
         }
         let input = &self.input;
-        let loss = input.product.permittivity(input.frequency_hz, temp_c, moisture_wb)?.eps.eps_imag;
+        let loss = input.product.permittivity_value(input.frequency_hz, temp_c, moisture_wb)?.eps_imag;
         self.loss_on_grid.borrow_mut().insert(key, loss);
         Ok(loss)
     }
@@ -575,11 +567,13 @@ impl Marcher<'_> {
 /// March along the tunnel. See the module documentation for the model.
 pub fn march(input: &MarchInput) -> Result<ZoneMarch, InputError> {
     let count = input.scenario.tunnel.zones.clamp(1, 100_000) as usize;
-    let marcher = Marcher {
+    let mut marcher = Marcher {
         input: *input,
         path: Path::new(input)?,
         capacitive: is_capacitive(input.frequency_hz),
-        optics_by_eps: RefCell::new(HashMap::new()),
+        bed: Bed::new(input.scenario),
+        // Room for a pass's zones at once, so the map does not regrow zone by zone.
+        optics_by_eps: HashMap::with_capacity(count.min(4096)),
         loss_on_grid: RefCell::new(HashMap::new()),
     };
     let absorbed_kw = input.energy.absorbed_kw;

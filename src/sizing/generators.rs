@@ -191,6 +191,17 @@ impl SelectionError {
 /// Most units one plan may call for; beyond that the class is far too small for the load.
 const MAX_UNITS: f64 = 1000.0;
 
+/// Running units of `class` for a needed output and the output per unit, kW; the raw count
+/// when it is more than [`MAX_UNITS`] (or not finite).
+fn unit_count(class: &GeneratorClass, output_needed_kw: f64) -> Result<(u32, f64), f64> {
+    let raw_count = (output_needed_kw / class.usable_output_kw()).ceil().max(1.0);
+    if !raw_count.is_finite() || raw_count > MAX_UNITS {
+        return Err(raw_count);
+    }
+    let running_count = raw_count as u32;
+    Ok((running_count, output_needed_kw / f64::from(running_count)))
+}
+
 /// Size `class` for a needed generator output.
 pub fn size_with(
     class: &GeneratorClass,
@@ -198,12 +209,8 @@ pub fn size_with(
     redundancy: Redundancy,
     picked_automatically: bool,
 ) -> Result<GeneratorSelection, SelectionError> {
-    let raw_count = (output_needed_kw / class.usable_output_kw()).ceil().max(1.0);
-    if !raw_count.is_finite() || raw_count > MAX_UNITS {
-        return Err(SelectionError::TooMany { class_id: class.id.clone(), count: raw_count });
-    }
-    let running_count = raw_count as u32;
-    let output_per_unit_kw = output_needed_kw / f64::from(running_count);
+    let (running_count, output_per_unit_kw) = unit_count(class, output_needed_kw)
+        .map_err(|raw_count| SelectionError::TooMany { class_id: class.id.clone(), count: raw_count })?;
     Ok(GeneratorSelection {
         class: class.clone(),
         running_count,
@@ -237,23 +244,34 @@ pub fn select(
         }
         return size_with(class, output_needed_kw, redundancy, false);
     }
-    let candidates: Vec<GeneratorSelection> = catalogue
+    // Classes are compared by reference; only the one chosen is copied into the selection (a
+    // plan's sensitivity rows select a dozen times).
+    struct Candidate<'c> {
+        class: &'c GeneratorClass,
+        running_count: u32,
+        operating_fraction: f64,
+    }
+    let candidates: Vec<Candidate> = catalogue
         .iter()
         .filter(|class| class.serves_frequency(freq_mhz))
-        .filter_map(|class| size_with(class, output_needed_kw, redundancy, true).ok())
+        .filter_map(|class| {
+            let (running_count, output_per_unit_kw) = unit_count(class, output_needed_kw).ok()?;
+            Some(Candidate { class, running_count, operating_fraction: output_per_unit_kw / class.rated_output_kw })
+        })
         .collect();
     // A unit run below its stable minimum is a poor pick; use such classes only if nothing else fits.
-    let stable: Vec<&GeneratorSelection> =
+    let stable: Vec<&Candidate> =
         candidates.iter().filter(|c| c.operating_fraction >= c.class.min_operating_fraction).collect();
-    let pool: Vec<&GeneratorSelection> = if stable.is_empty() { candidates.iter().collect() } else { stable };
-    pool.into_iter()
-        .min_by(|a, b| {
-            (a.running_count, a.class.rated_output_kw)
-                .partial_cmp(&(b.running_count, b.class.rated_output_kw))
-                .unwrap_or(std::cmp::Ordering::Equal)
-        })
-        .cloned()
-        .ok_or(SelectionError::NoClassForBand(freq_mhz))
+    let pool: Vec<&Candidate> = if stable.is_empty() { candidates.iter().collect() } else { stable };
+    let chosen = pool.into_iter().min_by(|a, b| {
+        (a.running_count, a.class.rated_output_kw)
+            .partial_cmp(&(b.running_count, b.class.rated_output_kw))
+            .unwrap_or(std::cmp::Ordering::Equal)
+    });
+    match chosen {
+        Some(candidate) => size_with(candidate.class, output_needed_kw, redundancy, true),
+        None => Err(SelectionError::NoClassForBand(freq_mhz)),
+    }
 }
 
 #[cfg(test)]

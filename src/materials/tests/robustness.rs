@@ -1,7 +1,7 @@
 //! No finite or non-finite input makes the public entry points panic or return NaN without an error.
 
 use crate::materials::thermal;
-use crate::materials::{library, permittivity, MaterialState};
+use crate::materials::{library, permittivity, permittivity_value, MaterialState};
 use proptest::prelude::*;
 
 fn any_number() -> impl Strategy<Value = f64> {
@@ -56,6 +56,21 @@ proptest! {
     }
 
     #[test]
+    fn the_value_alone_is_the_lookups_value_bit_for_bit(
+        index in 0usize..64,
+        f in prop_oneof![any_number(), 1e6..1e10f64],
+        t in prop_oneof![any_number(), -60.0..300.0f64],
+        m in optional_number(),
+        s in prop_oneof![Just(None), any_number().prop_map(Some), (0.0..26.0f64).prop_map(Some)],
+    ) {
+        let materials: Vec<_> = library().iter().collect();
+        let material = materials[index % materials.len()];
+        let state = MaterialState { temp_c: t, moisture_wb: m, salt_pct: s };
+        let lookup = permittivity(material, f, &state).map(|lookup| lookup.eps);
+        prop_assert_eq!(permittivity_value(material, f, &state), lookup);
+    }
+
+    #[test]
     fn thermal_functions_never_panic_or_return_nan(t in any_number(), p in any_number()) {
         prop_assert!(finite_or_error(thermal::latent_heat_vaporization_j_per_kg(t)));
         prop_assert!(finite_or_error(thermal::saturation_pressure_pa(t)));
@@ -83,4 +98,23 @@ fn a_subnormal_penetration_depth_is_refused() {
     let error =
         crate::materials::warnings::bed_depth_check(Some(2.992262981800266e-309), 0.7504731637420365).unwrap_err();
     assert_eq!(error.field, "penetration_depth_m");
+}
+
+/// The value alone against the full lookup over every material, across frozen, thawed, hot, dry
+/// and wet states and the ISM bands (exact equality: the same functions compute both).
+#[test]
+fn the_value_alone_matches_every_material_on_a_grid() {
+    for material in library().iter() {
+        for f in [13.56e6, 27.12e6, 915e6, 2450e6, 5800e6] {
+            for t in [-60.0, -18.0, -4.0, -1.0, 0.0, 4.0, 25.0, 72.0, 100.0, 150.0, 300.0] {
+                for m in [None, Some(0.0), Some(0.1), Some(0.5), Some(0.74), Some(0.95)] {
+                    for s in [None, Some(0.0), Some(2.0)] {
+                        let state = MaterialState { temp_c: t, moisture_wb: m, salt_pct: s };
+                        let lookup = permittivity(material, f, &state).map(|lookup| lookup.eps);
+                        assert_eq!(permittivity_value(material, f, &state), lookup, "{} {f} {state:?}", material.name);
+                    }
+                }
+            }
+        }
+    }
 }

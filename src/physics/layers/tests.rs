@@ -597,3 +597,185 @@ fn stack_document_reads_the_documented_format() {
     .unwrap();
     assert_eq!(bad.to_stack().unwrap_err().field, "layers[1].thickness_m");
 }
+
+/// The profile as every sample was evaluated before the shared exponentials: two direct
+/// exponentials per sample and side (the reference for `sampling`, kept here verbatim).
+fn profile_by_direct_evaluation(solved: &Solved, layer_index: usize, samples: usize) -> Vec<f64> {
+    let slab = solved.slabs[layer_index];
+    let count = solved.slabs.len();
+    let density = |one: &OneSided, position: usize, depth_in_slab_m: f64| {
+        if slab.eps_imag == 0.0 {
+            return 0.0;
+        }
+        let (forward, backward) = one.amplitudes[position];
+        let field = forward * propagator(solved.k0, slab.index, depth_in_slab_m)
+            + backward * propagator(solved.k0, slab.index, slab.thickness_m - depth_in_slab_m);
+        solved.k0 * slab.eps_imag * field.norm_sqr() / one.incident_index_re
+    };
+    (0..samples)
+        .map(|sample| {
+            let local_m = if sample + 1 == samples {
+                slab.thickness_m
+            } else {
+                slab.thickness_m * sample as f64 / (samples - 1) as f64
+            };
+            let mut total = 0.0;
+            for (side, share, one) in &solved.sides {
+                total += share
+                    * match side {
+                        FeedSide::Top => density(one, layer_index, local_m),
+                        FeedSide::Bottom => density(one, count - 1 - layer_index, slab.thickness_m - local_m),
+                    };
+            }
+            total
+        })
+        .collect()
+}
+
+fn check_sampling_against_direct_evaluation(
+    frequency_hz: f64,
+    layers: &[Layer],
+    backing: Backing,
+    feed: Feed,
+    samples: usize,
+) {
+    let solved = solve_sides(frequency_hz, layers, backing, feed, samples).unwrap();
+    for layer_index in 0..layers.len() {
+        let reference = profile_by_direct_evaluation(&solved, layer_index, samples);
+        let sampled = LayerSamples::new(&solved, layer_index, samples);
+        let mut profile = Vec::new();
+        sampled.each(|_, density| profile.push(density));
+        // Bit for bit: the same exponentials of the same distances, only shared.
+        let bits = |values: &[f64]| values.iter().map(|v| v.to_bits()).collect::<Vec<_>>();
+        assert_eq!(
+            bits(&profile),
+            bits(&reference),
+            "layer {layer_index} of {layers:?} at {frequency_hz} Hz, {feed:?}"
+        );
+        let highest = reference.iter().copied().reduce(f64::max).unwrap();
+        assert_eq!(sampled.peak().to_bits(), highest.to_bits(), "peak of layer {layer_index} of {layers:?}, {feed:?}");
+    }
+    // The march's reading is the full solution's, bit for bit.
+    let optics = product_optics(frequency_hz, layers, backing, feed, samples).unwrap();
+    let full = solve_stack(frequency_hz, layers, backing, feed, samples).unwrap();
+    let full_max = full
+        .depth_profile
+        .iter()
+        .filter(|sample| layers[sample.layer].is_product)
+        .map(|sample| sample.power_density_per_incident_flux_per_m)
+        .reduce(f64::max);
+    assert_eq!(optics.product_absorptance.to_bits(), full.product_absorptance.to_bits());
+    assert_eq!(optics.max_product_power_density_per_m.map(f64::to_bits), full_max.map(f64::to_bits));
+}
+
+#[test]
+fn shared_exponentials_and_the_peak_search_change_no_bit() {
+    // The cases where the peak's error bound is tightest or useless: a symmetric bed fed from
+    // both sides (two equal candidates), a thin product on metal (the field nearly cancels
+    // everywhere), thick and very lossy layers (underflow), and phases of millions of radians.
+    let cases: &[(f64, &[Layer], Backing, Feed, usize)] = &[
+        (915e6, &[layer("beef", 0.1, 4.0, 0.6, true)], Backing::Air, Feed::BothSides, 41),
+        (915e6, &[layer("beef", 0.1, 4.0, 0.6, true)], Backing::Air, Feed::BothSides, 40),
+        (2450e6, &[layer("wet", 0.065, 78.0, 13.4, true)], Backing::Air, Feed::BothSides, 131),
+        (2450e6, &[layer("thin", 1e-4, 40.0, 12.0, true)], Backing::Metal, Feed::Top, 41),
+        (
+            1e6,
+            &[layer("thin", 1e-4, 2.0, 1e-6, true), layer("gap", 0.01, 1.0, 0.0, false)],
+            Backing::Metal,
+            Feed::Top,
+            41,
+        ),
+        (3e11, &[layer("deep", 10.0, 1000.0, 1e6, true)], Backing::Air, Feed::BothSides, 41),
+        (3e11, &[layer("phase", 10.0, 1000.0, 1e-3, true)], Backing::Air, Feed::Top, 5000),
+        (
+            2450e6,
+            &[layer("water", 0.5, 78.0, 10.0, false), layer("under", 0.02, 40.0, 12.0, true)],
+            Backing::Air,
+            Feed::Top,
+            41,
+        ),
+        (
+            2450e6,
+            &[
+                layer("product", 0.025, 36.0, 17.0, true),
+                layer("tray", 0.0015, 2.25, 0.0011, false),
+                layer("belt", 0.001, 2.9, 0.004, false),
+                layer("air gap", 0.03, 1.0, 0.0, false),
+            ],
+            Backing::Metal,
+            Feed::Top,
+            41,
+        ),
+    ];
+    for &(frequency_hz, layers, backing, feed, samples) in cases {
+        check_sampling_against_direct_evaluation(frequency_hz, layers, backing, feed, samples);
+    }
+}
+
+#[test]
+fn a_mirrored_stack_fed_from_below_is_its_feed_from_above() {
+    // The solver reuses the top-fed solution for a one-layer bed in air fed from both sides;
+    // solving the reversed stack must give the same numbers to the bit.
+    let stack = [layer("bed", 0.1, 4.0, 0.6, true)];
+    let solved = solve_sides(915e6, &stack, Backing::Air, Feed::BothSides, 41).unwrap();
+    let slabs: Vec<Slab> = stack.iter().map(slab_of).collect();
+    let solved_again = solve_one_sided(solved.k0, Complex::ONE, &slabs, Exit::Medium(Complex::ONE));
+    let bits = |one: &OneSided| {
+        let mut bits = vec![one.reflectance.to_bits(), one.transmittance.to_bits(), one.incident_index_re.to_bits()];
+        for (forward, backward) in &one.amplitudes {
+            bits.extend([forward.re, forward.im, backward.re, backward.im].map(f64::to_bits));
+        }
+        bits.extend(one.absorptances.iter().map(|a| a.to_bits()));
+        bits
+    };
+    assert_eq!(bits(&solved.sides[1].2), bits(&solved_again));
+}
+
+proptest! {
+    #[test]
+    fn any_stack_samples_as_by_direct_evaluation(
+        frequency_hz in prop_oneof![1e6f64..1e8, 1e8f64..1e10, 1e10f64..3e11],
+        layers in prop::collection::vec(arbitrary_layer(), 1..6),
+        backing in arbitrary_backing(),
+        feed in arbitrary_feed(),
+        samples in prop_oneof![2usize..8, 40usize..45, 100usize..140],
+    ) {
+        let feed = match backing {
+            Backing::Metal => Feed::Top,
+            Backing::Material(eps) if eps.eps_imag > 0.0 => Feed::Top,
+            _ => feed,
+        };
+        check_sampling_against_direct_evaluation(frequency_hz, &layers, backing, feed, samples);
+    }
+}
+
+proptest! {
+    #[test]
+    fn the_peak_searchs_error_bound_holds_at_every_sample(
+        frequency_hz in prop_oneof![1e6f64..1e8, 1e8f64..1e10, 1e10f64..3e11],
+        layers in prop::collection::vec(arbitrary_layer(), 1..6),
+        backing in arbitrary_backing(),
+        feed in arbitrary_feed(),
+        samples in prop_oneof![2usize..8, 40usize..45, 1000usize..1100],
+        one_bed_fed_alike in any::<bool>(),
+    ) {
+        // What makes the peak exact: every exact sample lies within its approximation's bound.
+        // Half the cases are one bed in air fed from both sides, where the two sides mirror.
+        let (layers, backing, feed) =
+            if one_bed_fed_alike { (layers[..1].to_vec(), Backing::Air, Feed::BothSides) } else { (layers, backing, feed) };
+        let feed = match backing {
+            Backing::Metal => Feed::Top,
+            Backing::Material(eps) if eps.eps_imag > 0.0 => Feed::Top,
+            _ => feed,
+        };
+        let solved = solve_sides(frequency_hz, &layers, backing, feed, samples).unwrap();
+        for layer_index in 0..layers.len() {
+            let sampled = LayerSamples::new(&solved, layer_index, samples);
+            let Some(approximate) = sampled.approximate() else { continue };
+            for (index, value) in approximate.values.iter().enumerate() {
+                let (exact, error) = (sampled.exact(index), approximate.error(*value));
+                prop_assert!((value - exact).abs() <= error, "{index}: {value} +- {error} vs {exact}");
+            }
+        }
+    }
+}
