@@ -465,22 +465,33 @@ struct States {
     midpoints: Vec<Point>,
 }
 
+/// The net energy per kg in at the start and at the end of each zone for a split, J/kg: the
+/// running sum of the shares of `total`, the last end being `total` exactly, whatever the rounding
+/// of the sum.
+fn zone_energies(shares: &[f64], total: f64) -> impl Iterator<Item = (f64, f64)> + '_ {
+    let mut cumulative = 0.0;
+    shares.iter().enumerate().map(move |(index, share)| {
+        let before = cumulative;
+        cumulative += share * total;
+        if index + 1 == shares.len() {
+            cumulative = total;
+        }
+        (before, cumulative)
+    })
+}
+
 impl Marcher<'_> {
-    fn states(&self, shares: &[f64]) -> Result<States, InputError> {
-        let total = self.path.total();
+    /// The energy-midpoint states of a split (all a pass needs; the boundaries are worked out
+    /// once, for the final split, by [`Marcher::states`]).
+    fn midpoints(&self, shares: &[f64]) -> Result<Vec<Point>, InputError> {
+        zone_energies(shares, self.path.total()).map(|(before, after)| self.path.at(0.5 * (before + after))).collect()
+    }
+
+    fn states(&self, shares: &[f64], midpoints: Vec<Point>) -> Result<States, InputError> {
         let mut boundaries = Vec::with_capacity(shares.len() + 1);
-        let mut midpoints = Vec::with_capacity(shares.len());
         boundaries.push(self.path.at(0.0)?);
-        let mut cumulative = 0.0;
-        for (index, share) in shares.iter().enumerate() {
-            let before = cumulative;
-            cumulative += share * total;
-            // The last boundary is the end of the path exactly, whatever the rounding of the sum.
-            if index + 1 == shares.len() {
-                cumulative = total;
-            }
-            midpoints.push(self.path.at(0.5 * (before + cumulative))?);
-            boundaries.push(self.path.at(cumulative)?);
+        for (_, after) in zone_energies(shares, self.path.total()) {
+            boundaries.push(self.path.at(after)?);
         }
         Ok(States { boundaries, midpoints })
     }
@@ -582,11 +593,11 @@ pub fn march(input: &MarchInput) -> Result<ZoneMarch, InputError> {
     let mut passes = 0;
     let mut converged = false;
     let mut optics: Vec<Optics>;
-    // The states always belong to `shares`; the optics to the states of the pass before.
-    let mut states = marcher.states(&shares)?;
+    // The midpoints always belong to `shares`; the optics to the midpoints of the pass before.
+    let mut midpoints = marcher.midpoints(&shares)?;
     loop {
         passes += 1;
-        optics = states.midpoints.iter().map(|point| marcher.optics(point)).collect::<Result<_, _>>()?;
+        optics = midpoints.iter().map(|point| marcher.optics(point)).collect::<Result<_, _>>()?;
         if marcher.capacitive {
             // The split does not depend on the state: one pass is the answer.
             converged = true;
@@ -602,7 +613,7 @@ pub fn march(input: &MarchInput) -> Result<ZoneMarch, InputError> {
         let largest_move = next.iter().zip(&shares).map(|(new, old)| (new - old).abs()).fold(0.0, f64::max) / even;
         if next != shares {
             shares = next;
-            states = marcher.states(&shares)?;
+            midpoints = marcher.midpoints(&shares)?;
         }
         if largest_move <= DISTRIBUTION_TOLERANCE {
             converged = true;
@@ -612,6 +623,7 @@ pub fn march(input: &MarchInput) -> Result<ZoneMarch, InputError> {
             break;
         }
     }
+    let states = marcher.states(&shares, midpoints)?;
     let zones = build_zones(&marcher, &states, &optics, &shares, absorbed_kw)?;
     let mean_coupling = if marcher.capacitive {
         input.applicator_efficiency
@@ -761,6 +773,22 @@ mod tests {
     use crate::sizing::energy_balance::{balance, BalanceInput, LossAllowances};
     use crate::sizing::tunnel::{lay_out, ResidenceRule, TunnelInput};
     use approx::assert_relative_eq;
+
+    #[test]
+    fn zone_energies_run_from_zero_to_the_total_exactly() {
+        // Shares that do not sum to 1 in floating point (0.1 ten times is 0.9999999999999999).
+        let shares = [0.1; 10];
+        let energies: Vec<(f64, f64)> = zone_energies(&shares, 3.0).collect();
+        assert_eq!(energies.len(), 10);
+        assert_eq!(energies[0].0, 0.0);
+        assert_eq!(energies[9].1, 3.0);
+        for pair in energies.windows(2) {
+            // Each zone starts where the one before ends, bit for bit.
+            assert_eq!(pair[0].1.to_bits(), pair[1].0.to_bits());
+        }
+        assert_relative_eq!(energies[4].1, 1.5, max_relative = 1e-12);
+        assert_eq!(zone_energies(&[], 3.0).count(), 0);
+    }
 
     fn constant_product() -> Product {
         crate::plan::product::by_hand_constant_product()
