@@ -90,7 +90,7 @@
 //! taken off in proportion), no moisture gradient through the bed.
 
 use super::depth_profile::Bed;
-use super::product::Product;
+use super::product::{Product, ProductPermittivity};
 use super::warnings::Warning;
 use super::Zone;
 use crate::error::InputError;
@@ -450,6 +450,9 @@ struct Optics {
 struct Marcher<'a> {
     input: MarchInput<'a>,
     path: Path<'a>,
+    /// The product's permittivity at the inlet and at the outlet moisture (the same when nothing
+    /// dries): every zone of a heating stage is at one of the two.
+    permittivity_at: [ProductPermittivity<'a>; 2],
     capacitive: bool,
     /// The bed's stack, built once for all zones and passes.
     bed: Bed,
@@ -536,9 +539,17 @@ impl Marcher<'_> {
         Ok(States { boundaries, midpoints })
     }
 
-    fn optics(&mut self, point: &Point) -> Result<Optics, InputError> {
+    /// The product's permittivity at a state (`Product::permittivity_value`, bit for bit).
+    fn permittivity(&self, temp_c: f64, moisture_wb: f64) -> Result<ComplexPermittivity, InputError> {
         let input = &self.input;
-        let eps = input.product.permittivity_value(input.frequency_hz, point.temp_c, point.moisture_wb)?;
+        match self.permittivity_at.iter().find(|curve| curve.moisture_wb().to_bits() == moisture_wb.to_bits()) {
+            Some(curve) => curve.value(input.frequency_hz, temp_c),
+            None => input.product.permittivity_value(input.frequency_hz, temp_c, moisture_wb),
+        }
+    }
+
+    fn optics(&mut self, point: &Point) -> Result<Optics, InputError> {
+        let eps = self.permittivity(point.temp_c, point.moisture_wb)?;
         let key = (eps.eps_real.to_bits(), eps.eps_imag.to_bits());
         if let Some(optics) = self.optics_by_eps.get(&key) {
             return Ok(*optics);
@@ -608,8 +619,7 @@ impl Marcher<'_> {
         if let Some(loss) = self.loss_on_grid.borrow().get(&key) {
             return Ok(*loss);
         }
-        let input = &self.input;
-        let loss = input.product.permittivity_value(input.frequency_hz, temp_c, moisture_wb)?.eps_imag;
+        let loss = self.permittivity(temp_c, moisture_wb)?.eps_imag;
         self.loss_on_grid.borrow_mut().insert(key, loss);
         Ok(loss)
     }
@@ -621,6 +631,10 @@ pub fn march(input: &MarchInput) -> Result<ZoneMarch, InputError> {
     let mut marcher = Marcher {
         input: *input,
         path: Path::new(input)?,
+        permittivity_at: [
+            input.product.permittivity_curve(input.inlet_moisture_wb),
+            input.product.permittivity_curve(input.outlet_moisture_wb),
+        ],
         capacitive: is_capacitive(input.frequency_hz),
         bed: Bed::new(input.scenario),
         // Room for a pass's zones at once, so the map does not regrow zone by zone.
