@@ -173,6 +173,7 @@ impl<'a> LayerSamples<'a> {
             powers.push(power);
             power = power * step;
         }
+        let powers = powers.as_slice();
         let mut values = vec![0.0; samples];
         let mut shared_error = 0.0;
         let mut previous: Option<(f64, Complex, Complex)> = None;
@@ -191,11 +192,12 @@ impl<'a> LayerSamples<'a> {
             if *side == FeedSide::Bottom && previous.is_some_and(|seen| same_bits(seen, (weight, forward, backward))) {
                 // A bed fed alike from both sides: the feed from below is the one from above read
                 // backwards, so the sum over the sides is symmetric.
-                for index in 0..samples / 2 {
-                    let mirror = samples - 1 - index;
-                    let sum = values[index] + values[mirror];
-                    values[index] = sum;
-                    values[mirror] = sum;
+                // Pairs (i, S - 1 - i) for i < S / 2; an odd middle sample is in neither half.
+                let (head, tail) = values.split_at_mut(samples / 2);
+                for (value, mirror) in head.iter_mut().zip(tail.iter_mut().rev()) {
+                    let sum = *value + *mirror;
+                    *value = sum;
+                    *mirror = sum;
                 }
                 if samples % 2 == 1 {
                     values[samples / 2] *= 2.0;
@@ -204,12 +206,14 @@ impl<'a> LayerSamples<'a> {
             }
             // E ~ a w^i + c w^(S-1-i) at sample i, for a wave entering at the top face (a feed from
             // below enters at the last sample, so its powers run the other way).
-            let mut add = |(value, (&near, &far)): (&mut f64, (&Complex, &Complex))| {
+            // (A plain loop: under the size-optimised build a closure here stayed a call per sample.)
+            for (index, (value, &power)) in values.iter_mut().zip(powers).enumerate() {
+                let mirrored = powers[samples - 1 - index];
+                let (near, far) = match side {
+                    FeedSide::Top => (power, mirrored),
+                    FeedSide::Bottom => (mirrored, power),
+                };
                 *value += weight * (forward * near + backward * far).norm_sqr();
-            };
-            match side {
-                FeedSide::Top => values.iter_mut().zip(powers.iter().zip(powers.iter().rev())).for_each(&mut add),
-                FeedSide::Bottom => values.iter_mut().zip(powers.iter().rev().zip(powers.iter())).for_each(&mut add),
             }
             previous = Some((weight, forward, backward));
         }
