@@ -455,8 +455,10 @@ fn fresnel(from: Complex, to: Complex) -> Complex {
 /// wave at the first slab's top face.
 fn solve_one_sided(k0: f64, incident: Complex, slabs: &[Slab], exit: Exit) -> OneSided {
     let count = slabs.len();
-    // Pass 1, bottom to top: G at the bottom face of each slab, and G at its top face.
-    let mut ratios = vec![(Complex::ZERO, Complex::ZERO); count];
+    // Pass 1, bottom to top: G at the bottom face of each slab, and G at its top face. Pass 2
+    // writes each slab's amplitudes over its ratios once it has read them, so one vector holds
+    // both.
+    let mut amplitudes = vec![(Complex::ZERO, Complex::ZERO); count];
     for index in (0..count).rev() {
         let slab = slabs[index];
         let bottom_ratio = if index + 1 == count {
@@ -466,27 +468,29 @@ fn solve_one_sided(k0: f64, incident: Complex, slabs: &[Slab], exit: Exit) -> On
             }
         } else {
             let interface = fresnel(slab.index, slabs[index + 1].index);
-            let below = ratios[index + 1].1;
+            let below = amplitudes[index + 1].1;
             (interface + below) / (Complex::ONE + interface * below)
         };
         let round_trip = propagator(k0, slab.index, 2.0 * slab.thickness_m);
-        ratios[index] = (bottom_ratio, bottom_ratio * round_trip);
+        amplitudes[index] = (bottom_ratio, bottom_ratio * round_trip);
     }
-    let top_ratio = |index: usize| ratios[index].1;
+    let top_ratio_first = amplitudes[0].1;
     let entry = fresnel(incident, slabs[0].index);
-    let reflection = (entry + top_ratio(0)) / (Complex::ONE + entry * top_ratio(0));
+    let reflection = (entry + top_ratio_first) / (Complex::ONE + entry * top_ratio_first);
 
     // Pass 2, top to bottom: forward amplitudes from the continuity of E and H.
-    let mut amplitudes = Vec::with_capacity(count);
-    let mut forward = (Complex::ONE + entry) / (Complex::ONE + entry * top_ratio(0));
+    let mut forward = (Complex::ONE + entry) / (Complex::ONE + entry * top_ratio_first);
     let mut exit_forward = Complex::ZERO;
     for index in 0..count {
         let slab = slabs[index];
         let at_bottom = forward * propagator(k0, slab.index, slab.thickness_m);
-        amplitudes.push((forward, ratios[index].0 * at_bottom));
+        let bottom_ratio = amplitudes[index].0;
+        amplitudes[index] = (forward, bottom_ratio * at_bottom);
         if index + 1 < count {
             let interface = fresnel(slab.index, slabs[index + 1].index);
-            forward = at_bottom * (Complex::ONE + interface) / (Complex::ONE + interface * top_ratio(index + 1));
+            // The slab below still holds its ratios.
+            let top_ratio_below = amplitudes[index + 1].1;
+            forward = at_bottom * (Complex::ONE + interface) / (Complex::ONE + interface * top_ratio_below);
         } else if let Exit::Medium(exit_index) = exit {
             exit_forward = at_bottom * (Complex::ONE + fresnel(slab.index, exit_index));
         }
@@ -532,13 +536,20 @@ fn slab_of(layer: &Layer) -> Slab {
     }
 }
 
+/// A feeding side's solution: its own, or the top-fed one (a mirrored stack fed from below, whose
+/// solution is the top-fed one number for number, read from the other end).
+enum SideSolution {
+    Own(OneSided),
+    TopFed,
+}
+
 /// The one-sided solutions of a stack and what they give per layer, before any sampling.
 struct Solved {
     k0: f64,
     slabs: Vec<Slab>,
     /// (side, share of the incident power, solution); the bottom-fed solution holds its slabs in
     /// reverse order.
-    sides: Vec<(FeedSide, f64, OneSided)>,
+    sides: Vec<(FeedSide, f64, SideSolution)>,
     /// Per layer in the order given, as fractions of the total incident power.
     absorptances: Vec<f64>,
     reflectance: f64,
@@ -562,7 +573,7 @@ fn solve_sides(
         Backing::Material(eps) => Some(eps.refractive_index()),
     };
 
-    let mut sides: Vec<(FeedSide, f64, OneSided)> = Vec::with_capacity(2);
+    let mut sides: Vec<(FeedSide, f64, SideSolution)> = Vec::with_capacity(2);
     let top_share = match feed {
         Feed::Top => Some(1.0),
         Feed::BothSides => Some(0.5),
@@ -575,7 +586,7 @@ fn solve_sides(
     };
     if let Some(share) = top_share {
         let exit = backing_index.map_or(Exit::Short, Exit::Medium);
-        sides.push((FeedSide::Top, share, solve_one_sided(k0, air, &slabs, exit)));
+        sides.push((FeedSide::Top, share, SideSolution::Own(solve_one_sided(k0, air, &slabs, exit))));
     }
     if let (Some(share), Some(incident)) = (bottom_share, backing_index) {
         // Air on both sides and a stack that reads the same both ways (one bed of product): the
@@ -583,21 +594,21 @@ fn solve_sides(
         let mirrored = incident.re.to_bits() == air.re.to_bits()
             && incident.im.to_bits() == air.im.to_bits()
             && slabs.iter().zip(slabs.iter().rev()).all(|(a, b)| a.same_bits(b));
-        let one = match sides.first() {
-            Some((_, _, top)) if mirrored => top.clone(),
-            _ => {
-                let reversed: Vec<Slab> = slabs.iter().rev().copied().collect();
-                solve_one_sided(k0, incident, &reversed, Exit::Medium(air))
-            }
+        let one = if mirrored && !sides.is_empty() {
+            SideSolution::TopFed
+        } else {
+            let reversed: Vec<Slab> = slabs.iter().rev().copied().collect();
+            SideSolution::Own(solve_one_sided(k0, incident, &reversed, Exit::Medium(air)))
         };
         sides.push((FeedSide::Bottom, share, one));
     }
 
     let count = layers.len();
+    let mut solved = Solved { k0, slabs, sides, absorptances: Vec::new(), reflectance: 0.0, transmittance: 0.0 };
     let mut absorptances = vec![0.0; count];
     let mut reflectance = 0.0;
     let mut transmittance = 0.0;
-    for (side, share, one) in &sides {
+    for (side, share, one) in solved.sides() {
         for (position, absorbed) in one.absorptances.iter().enumerate() {
             let layer_index = match side {
                 FeedSide::Top => position,
@@ -608,7 +619,26 @@ fn solve_sides(
         reflectance += share * one.reflectance;
         transmittance += share * one.transmittance;
     }
-    Ok(Solved { k0, slabs, sides, absorptances, reflectance, transmittance })
+    solved.absorptances = absorptances;
+    solved.reflectance = reflectance;
+    solved.transmittance = transmittance;
+    Ok(solved)
+}
+
+impl Solved {
+    /// The feeding sides, each with its share of the incident power and its solution.
+    fn sides(&self) -> impl Iterator<Item = (FeedSide, f64, &OneSided)> + '_ {
+        self.sides.iter().filter_map(move |(side, share, solution)| {
+            let one = match solution {
+                SideSolution::Own(one) => one,
+                SideSolution::TopFed => match self.sides.first() {
+                    Some((FeedSide::Top, _, SideSolution::Own(top))) => top,
+                    _ => return None,
+                },
+            };
+            Some((*side, *share, one))
+        })
+    }
 }
 
 /// Solve without the uniformity assessment (the part [`solve_stack_with`] adds).
@@ -621,11 +651,10 @@ fn solve_unassessed(
 ) -> Result<StackSolution, InputError> {
     let solved = solve_sides(frequency_hz, layers, backing, feed, samples_per_layer)?;
     let sides = solved
-        .sides
-        .iter()
+        .sides()
         .map(|(side, share, one)| SideResult {
-            side: *side,
-            incident_share: *share,
+            side,
+            incident_share: share,
             reflectance: one.reflectance,
             transmittance: one.transmittance,
             absorptance: one.absorptances.iter().sum(),

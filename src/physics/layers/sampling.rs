@@ -74,7 +74,7 @@ impl<'a> LayerSamples<'a> {
         let rest_m = slab.thickness_m - local_m;
         let to_bottom = propagate(rest_m, last - index);
         let mut density = 0.0;
-        for (side, share, one) in &self.solved.sides {
+        for (side, share, one) in self.solved.sides() {
             let field = match side {
                 FeedSide::Top => {
                     let (forward, backward) = one.amplitudes[self.layer_index];
@@ -177,7 +177,7 @@ impl<'a> LayerSamples<'a> {
         let mut values = vec![0.0; samples];
         let mut shared_error = 0.0;
         let mut previous: Option<(f64, Complex, Complex)> = None;
-        for (side, share, one) in &self.solved.sides {
+        for (side, share, one) in self.solved.sides() {
             let (forward, backward) = match side {
                 FeedSide::Top => one.amplitudes[self.layer_index],
                 FeedSide::Bottom => one.amplitudes[count - 1 - self.layer_index],
@@ -189,7 +189,7 @@ impl<'a> LayerSamples<'a> {
             shared_error +=
                 share * (4.0 * q * reach * field_error + 16.0 * ROUNDOFF * q * reach * reach + UNDERFLOW_FLOOR_PER_M);
             let weight = share * q;
-            if *side == FeedSide::Bottom && previous.is_some_and(|seen| same_bits(seen, (weight, forward, backward))) {
+            if side == FeedSide::Bottom && previous.is_some_and(|seen| same_bits(seen, (weight, forward, backward))) {
                 // A bed fed alike from both sides: the feed from below is the one from above read
                 // backwards, so the sum over the sides is symmetric.
                 // Pairs (i, S - 1 - i) for i < S / 2; an odd middle sample is in neither half.
