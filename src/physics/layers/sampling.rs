@@ -142,8 +142,12 @@ impl<'a> LayerSamples<'a> {
         match self.approximate() {
             Some(approximate) => {
                 let values = &approximate.values;
-                let lower =
-                    values.iter().map(|&value| value - approximate.error(value)).fold(f64::NEG_INFINITY, f64::max);
+                // Every value and bound is finite here (`approximate` says so), so a plain comparison
+                // is `f64::max` (which the size-optimised build calls out of line).
+                let lower = values
+                    .iter()
+                    .map(|&value| value - approximate.error(value))
+                    .fold(f64::NEG_INFINITY, |lower, bound| if bound > lower { bound } else { lower });
                 for (index, &value) in values.iter().enumerate() {
                     if value + approximate.error(value) >= lower {
                         evaluate(index);
@@ -174,7 +178,9 @@ impl<'a> LayerSamples<'a> {
             power = power * step;
         }
         let powers = powers.as_slice();
-        let mut values = vec![0.0; samples];
+        // Filled rather than zero-allocated: the zeroing allocation cost more than the loop.
+        let mut values = Vec::with_capacity(samples);
+        values.resize(samples, 0.0);
         let mut shared_error = 0.0;
         let mut previous: Option<(f64, Complex, Complex)> = None;
         for (side, share, one) in self.solved.sides() {
