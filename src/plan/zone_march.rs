@@ -332,31 +332,19 @@ impl<'a> Path<'a> {
         }
     }
 
-    /// The product after `energy` J per kg in.
-    fn at(&self, energy: f64) -> Result<Point, InputError> {
+    /// Where the product is after `energy` J per kg in, before any temperature is searched for.
+    fn place(&self, energy: f64) -> Place {
         let energy = energy.clamp(0.0, self.total());
         // The first heating stage: all of the path when nothing dries, else up to the boiling point.
         if !self.drying || (self.heat_one > 0.0 && energy < self.heat_one) {
-            let stage_end_c = if self.drying { self.evaporation_temp_c } else { self.outlet_temp_c };
-            let temp_c = temperature_at_enthalpy(
-                |temp_c| self.wet_enthalpy.enthalpy_j_per_kg(temp_c),
-                self.inlet_enthalpy + energy,
-                (self.inlet_temp_c, self.inlet_enthalpy),
-                (stage_end_c, self.inlet_enthalpy + self.heat_one),
-            )?;
-            return Ok(Point {
-                temp_c,
-                moisture_wb: self.inlet_moisture_wb,
-                water_removed_per_kg_in: 0.0,
-                stage: Stage::Heating,
-            });
+            return Place::Heating { enthalpy: self.inlet_enthalpy + energy };
         }
         // From here on energy - heat_one >= 0, also when heat_one < 0 (the flash at the inlet).
         let after_heating = energy - self.heat_one;
         if after_heating < self.evaporate || self.heat_three <= 0.0 {
             let water = (after_heating / self.latent_heat_j_per_kg).clamp(0.0, self.water_total);
             let moisture = ((self.inlet_moisture_wb - water) / (1.0 - water)).max(self.outlet_moisture_wb);
-            return Ok(Point {
+            return Place::Evaporating(Point {
                 temp_c: self.evaporation_temp_c,
                 moisture_wb: moisture,
                 water_removed_per_kg_in: water,
@@ -364,20 +352,72 @@ impl<'a> Path<'a> {
             });
         }
         let dried = (after_heating - self.evaporate).min(self.heat_three);
-        let dried_enthalpy = self.dried_enthalpy_at_evaporation;
-        let temp_c = temperature_at_enthalpy(
-            |temp_c| self.dried_enthalpy.enthalpy_j_per_kg(temp_c),
-            dried_enthalpy + dried / self.out_per_in,
-            (self.evaporation_temp_c, dried_enthalpy),
-            (self.outlet_temp_c, dried_enthalpy + self.heat_three / self.out_per_in),
-        )?;
-        Ok(Point {
-            temp_c,
-            moisture_wb: self.outlet_moisture_wb,
-            water_removed_per_kg_in: self.water_total,
-            stage: Stage::HeatingDried,
-        })
+        Place::HeatingDried { enthalpy: self.dried_enthalpy_at_evaporation + dried / self.out_per_in }
     }
+
+    /// The product after `energy` J per kg in.
+    fn at(&self, energy: f64) -> Result<Point, InputError> {
+        match self.place(energy) {
+            Place::Heating { enthalpy } => {
+                let stage_end_c = if self.drying { self.evaporation_temp_c } else { self.outlet_temp_c };
+                let temp_c = temperature_at_enthalpy(
+                    |temp_c| self.wet_enthalpy.enthalpy_j_per_kg(temp_c),
+                    enthalpy,
+                    (self.inlet_temp_c, self.inlet_enthalpy),
+                    (stage_end_c, self.inlet_enthalpy + self.heat_one),
+                )?;
+                Ok(Point {
+                    temp_c,
+                    moisture_wb: self.inlet_moisture_wb,
+                    water_removed_per_kg_in: 0.0,
+                    stage: Stage::Heating,
+                })
+            }
+            Place::Evaporating(point) => Ok(point),
+            Place::HeatingDried { enthalpy } => {
+                let dried_enthalpy = self.dried_enthalpy_at_evaporation;
+                let temp_c = temperature_at_enthalpy(
+                    |temp_c| self.dried_enthalpy.enthalpy_j_per_kg(temp_c),
+                    enthalpy,
+                    (self.evaporation_temp_c, dried_enthalpy),
+                    (self.outlet_temp_c, dried_enthalpy + self.heat_three / self.out_per_in),
+                )?;
+                Ok(Point {
+                    temp_c,
+                    moisture_wb: self.outlet_moisture_wb,
+                    water_removed_per_kg_in: self.water_total,
+                    stage: Stage::HeatingDried,
+                })
+            }
+        }
+    }
+
+    /// The stage and the moisture after `energy` J per kg in: what [`Path::at`] gives for them,
+    /// without the temperature search.
+    fn stage_at(&self, energy: f64) -> StageAt {
+        match self.place(energy) {
+            Place::Heating { .. } => StageAt { stage: Stage::Heating, moisture_wb: self.inlet_moisture_wb },
+            Place::Evaporating(point) => StageAt { stage: point.stage, moisture_wb: point.moisture_wb },
+            Place::HeatingDried { .. } => StageAt { stage: Stage::HeatingDried, moisture_wb: self.outlet_moisture_wb },
+        }
+    }
+}
+
+/// Where on the path a product is ([`Path::place`]).
+enum Place {
+    /// Heating the wet product, to this enthalpy per kg, J/kg.
+    Heating { enthalpy: f64 },
+    /// Evaporating at T_e: the state needs no search.
+    Evaporating(Point),
+    /// Heating the dried product, to this enthalpy per kg of dried product, J/kg.
+    HeatingDried { enthalpy: f64 },
+}
+
+/// The stage and moisture of a state without its temperature.
+#[derive(Debug, Clone, Copy, PartialEq)]
+struct StageAt {
+    stage: Stage,
+    moisture_wb: f64,
 }
 
 /// The temperature between `start.0` and `end.0` at which the rising function `enthalpy` reaches
@@ -502,10 +542,10 @@ impl Hasher for BitsHasher {
     }
 }
 
-/// Boundary states (N + 1, inlet first) and energy-midpoint states (N) for a split.
+/// Boundary states (N + 1, inlet first) and the stages at the energy midpoints (N) for a split.
 struct States {
     boundaries: Vec<Point>,
-    midpoints: Vec<Point>,
+    midpoints: Vec<StageAt>,
 }
 
 /// The net energy per kg in at the start and at the end of each zone for a split, J/kg: the
@@ -530,12 +570,17 @@ impl Marcher<'_> {
         zone_energies(shares, self.path.total()).map(|(before, after)| self.path.at(0.5 * (before + after))).collect()
     }
 
-    fn states(&self, shares: &[f64], midpoints: Vec<Point>) -> Result<States, InputError> {
+    /// The final split's boundaries, and the stages at its midpoints (the zones read no midpoint
+    /// temperature: their permittivities are those of the pass before).
+    fn states(&self, shares: &[f64]) -> Result<States, InputError> {
+        let total = self.path.total();
         let mut boundaries = Vec::with_capacity(shares.len() + 1);
         boundaries.push(self.path.at(0.0)?);
-        for (_, after) in zone_energies(shares, self.path.total()) {
+        for (_, after) in zone_energies(shares, total) {
             boundaries.push(self.path.at(after)?);
         }
+        let midpoints =
+            zone_energies(shares, total).map(|(before, after)| self.path.stage_at(0.5 * (before + after))).collect();
         Ok(States { boundaries, midpoints })
     }
 
@@ -590,7 +635,7 @@ impl Marcher<'_> {
     /// zone's temperature range widened to at least [`RUNAWAY_WINDOW_K`] and out to whole kelvins,
     /// so that neighbouring zones share their lookups (a fine division costs no more lookups than
     /// the kelvins the product crosses).
-    fn runaway(&self, entry: &Point, exit: &Point, mid: &Point) -> Result<bool, InputError> {
+    fn runaway(&self, entry: &Point, exit: &Point, mid: &StageAt) -> Result<bool, InputError> {
         let span = exit.temp_c - entry.temp_c;
         if span.is_nan() || span <= TEMPERATURE_TOLERANCE_K {
             return Ok(false);
@@ -647,10 +692,11 @@ pub fn march(input: &MarchInput) -> Result<ZoneMarch, InputError> {
     let mut passes = 0;
     let mut converged = false;
     let mut optics: Vec<Optics>;
-    // The midpoints always belong to `shares`; the optics to the midpoints of the pass before.
-    let mut midpoints = marcher.midpoints(&shares)?;
+    // Each pass takes the optics at the midpoints of `shares`, then moves `shares` on: the final
+    // optics belong to the split before the final one.
     loop {
         passes += 1;
+        let midpoints = marcher.midpoints(&shares)?;
         optics = midpoints.iter().map(|point| marcher.optics(point)).collect::<Result<_, _>>()?;
         if marcher.capacitive {
             // The split does not depend on the state: one pass is the answer.
@@ -665,10 +711,7 @@ pub fn march(input: &MarchInput) -> Result<ZoneMarch, InputError> {
             vec![even; count]
         };
         let largest_move = next.iter().zip(&shares).map(|(new, old)| (new - old).abs()).fold(0.0, f64::max) / even;
-        if next != shares {
-            shares = next;
-            midpoints = marcher.midpoints(&shares)?;
-        }
+        shares = next;
         if largest_move <= DISTRIBUTION_TOLERANCE {
             converged = true;
             break;
@@ -677,7 +720,7 @@ pub fn march(input: &MarchInput) -> Result<ZoneMarch, InputError> {
             break;
         }
     }
-    let states = marcher.states(&shares, midpoints)?;
+    let states = marcher.states(&shares)?;
     let zones = build_zones(&marcher, &states, &optics, &shares, absorbed_kw)?;
     let mean_coupling = if marcher.capacitive {
         input.applicator_efficiency
@@ -950,6 +993,29 @@ mod tests {
             assert_relative_eq!(end.temp_c, 120.0, epsilon = 1e-9);
             assert_eq!(end.moisture_wb, 0.2);
         });
+    }
+
+    #[test]
+    fn the_stage_alone_is_the_states_stage_and_moisture() {
+        // Along both drying paths (three stages; a flash at the inlet), at and between the stage
+        // ends: exact, the same branch computes both.
+        for (inlet_c, outlet_c) in [(20.0, 120.0), (110.0, 90.0)] {
+            with_path(inlet_c, outlet_c, |path| {
+                let total = path.total();
+                let ends = [0.0, path.heat_one, path.heat_one + path.evaporate, total];
+                let mut energies: Vec<f64> = (0..=64).map(|step| total * f64::from(step) / 64.0).collect();
+                energies.extend(ends.iter().flat_map(|&end| [end, end - 1e-3, end + 1e-3]));
+                let mut stages = std::collections::HashSet::new();
+                for energy in energies {
+                    let point = path.at(energy).unwrap();
+                    let stage = path.stage_at(energy);
+                    assert_eq!(stage.stage, point.stage, "{energy}");
+                    assert_eq!(stage.moisture_wb.to_bits(), point.moisture_wb.to_bits(), "{energy}");
+                    stages.insert(point.stage.name());
+                }
+                assert_eq!(stages.len(), if inlet_c < 100.0 { 3 } else { 1 });
+            });
+        }
     }
 
     #[test]
