@@ -451,14 +451,29 @@ fn fresnel(from: Complex, to: Complex) -> Complex {
     (from - to) / (from + to)
 }
 
-/// Solve a stack fed from `incident` (a semi-infinite medium of that index) with a unit incident
-/// wave at the first slab's top face.
+/// [`solve_one_sided_in`] in new vectors.
+#[cfg(test)]
 fn solve_one_sided(k0: f64, incident: Complex, slabs: &[Slab], exit: Exit) -> OneSided {
+    solve_one_sided_in(k0, incident, slabs, exit, (Vec::new(), Vec::new()))
+}
+
+/// Solve a stack fed from `incident` (a semi-infinite medium of that index) with a unit incident
+/// wave at the first slab's top face, in the vectors of `room` (amplitudes, absorptances;
+/// whatever they hold is replaced).
+fn solve_one_sided_in(
+    k0: f64,
+    incident: Complex,
+    slabs: &[Slab],
+    exit: Exit,
+    room: (Vec<(Complex, Complex)>, Vec<f64>),
+) -> OneSided {
+    let (mut amplitudes, mut absorptances) = room;
     let count = slabs.len();
     // Pass 1, bottom to top: G at the bottom face of each slab, and G at its top face. Pass 2
     // writes each slab's amplitudes over its ratios once it has read them, so one vector holds
     // both.
-    let mut amplitudes = vec![(Complex::ZERO, Complex::ZERO); count];
+    amplitudes.clear();
+    amplitudes.resize(count, (Complex::ZERO, Complex::ZERO));
     for index in (0..count).rev() {
         let slab = slabs[index];
         let bottom_ratio = if index + 1 == count {
@@ -504,11 +519,13 @@ fn solve_one_sided(k0: f64, incident: Complex, slabs: &[Slab], exit: Exit) -> On
         Exit::Medium(exit_index) => exit_index.re * exit_forward.norm_sqr() / incident_index_re,
         Exit::Short => 0.0,
     };
-    let absorptances = slabs
-        .iter()
-        .zip(&amplitudes)
-        .map(|(slab, &(forward, backward))| slab_absorptance(k0, *slab, forward, backward) / incident_index_re)
-        .collect();
+    absorptances.clear();
+    absorptances.extend(
+        slabs
+            .iter()
+            .zip(&amplitudes)
+            .map(|(slab, &(forward, backward))| slab_absorptance(k0, *slab, forward, backward) / incident_index_re),
+    );
     OneSided { reflection, reflectance, transmittance, incident_index_re, amplitudes, absorptances }
 }
 
@@ -556,6 +573,36 @@ struct Solved {
     transmittance: f64,
 }
 
+/// Vectors that a run of solves reuses (a zone march solves its bed hundreds of times): only
+/// their room is kept from one solve to the next, never what they held.
+#[derive(Default)]
+pub struct SolveBuffers {
+    slabs: Vec<Slab>,
+    sides: Vec<(FeedSide, f64, SideSolution)>,
+    /// (amplitudes, absorptances) of one-sided solutions.
+    one_sided: Vec<(Vec<(Complex, Complex)>, Vec<f64>)>,
+    absorptances: Vec<f64>,
+    powers: Vec<Complex>,
+    values: Vec<f64>,
+}
+
+impl SolveBuffers {
+    fn one_sided_room(&mut self) -> (Vec<(Complex, Complex)>, Vec<f64>) {
+        self.one_sided.pop().unwrap_or_default()
+    }
+
+    /// Take back the vectors of a solution.
+    fn recycle(&mut self, solved: Solved) {
+        let Solved { slabs, mut sides, absorptances, .. } = solved;
+        for (_, _, solution) in sides.drain(..) {
+            if let SideSolution::Own(one) = solution {
+                self.one_sided.push((one.amplitudes, one.absorptances));
+            }
+        }
+        (self.slabs, self.sides, self.absorptances) = (slabs, sides, absorptances);
+    }
+}
+
 fn solve_sides(
     frequency_hz: f64,
     layers: &[Layer],
@@ -563,9 +610,23 @@ fn solve_sides(
     feed: Feed,
     samples_per_layer: usize,
 ) -> Result<Solved, InputError> {
+    solve_sides_with(frequency_hz, layers, backing, feed, samples_per_layer, &mut SolveBuffers::default())
+}
+
+/// [`solve_sides`] in the vectors of `buffers` (give them back with [`SolveBuffers::recycle`]).
+fn solve_sides_with(
+    frequency_hz: f64,
+    layers: &[Layer],
+    backing: Backing,
+    feed: Feed,
+    samples_per_layer: usize,
+    buffers: &mut SolveBuffers,
+) -> Result<Solved, InputError> {
     validate_request(frequency_hz, layers, backing, feed, samples_per_layer)?;
     let k0 = 2.0 * PI * frequency_hz / SPEED_OF_LIGHT_M_PER_S;
-    let slabs: Vec<Slab> = layers.iter().map(slab_of).collect();
+    let mut slabs = std::mem::take(&mut buffers.slabs);
+    slabs.clear();
+    slabs.extend(layers.iter().map(slab_of));
     let air = Complex::ONE;
     let backing_index = match backing {
         Backing::Air => Some(air),
@@ -573,7 +634,8 @@ fn solve_sides(
         Backing::Material(eps) => Some(eps.refractive_index()),
     };
 
-    let mut sides: Vec<(FeedSide, f64, SideSolution)> = Vec::with_capacity(2);
+    let mut sides = std::mem::take(&mut buffers.sides);
+    sides.clear();
     let top_share = match feed {
         Feed::Top => Some(1.0),
         Feed::BothSides => Some(0.5),
@@ -586,7 +648,8 @@ fn solve_sides(
     };
     if let Some(share) = top_share {
         let exit = backing_index.map_or(Exit::Short, Exit::Medium);
-        sides.push((FeedSide::Top, share, SideSolution::Own(solve_one_sided(k0, air, &slabs, exit))));
+        let room = buffers.one_sided_room();
+        sides.push((FeedSide::Top, share, SideSolution::Own(solve_one_sided_in(k0, air, &slabs, exit, room))));
     }
     if let (Some(share), Some(incident)) = (bottom_share, backing_index) {
         // Air on both sides and a stack that reads the same both ways (one bed of product): the
@@ -598,14 +661,17 @@ fn solve_sides(
             SideSolution::TopFed
         } else {
             let reversed: Vec<Slab> = slabs.iter().rev().copied().collect();
-            SideSolution::Own(solve_one_sided(k0, incident, &reversed, Exit::Medium(air)))
+            let room = buffers.one_sided_room();
+            SideSolution::Own(solve_one_sided_in(k0, incident, &reversed, Exit::Medium(air), room))
         };
         sides.push((FeedSide::Bottom, share, one));
     }
 
     let count = layers.len();
     let mut solved = Solved { k0, slabs, sides, absorptances: Vec::new(), reflectance: 0.0, transmittance: 0.0 };
-    let mut absorptances = vec![0.0; count];
+    let mut absorptances = std::mem::take(&mut buffers.absorptances);
+    absorptances.clear();
+    absorptances.resize(count, 0.0);
     let mut reflectance = 0.0;
     let mut transmittance = 0.0;
     for (side, share, one) in solved.sides() {
@@ -723,13 +789,31 @@ pub fn product_optics(
     feed: Feed,
     samples_per_layer: usize,
 ) -> Result<ProductOptics, InputError> {
-    let solved = solve_sides(frequency_hz, layers, backing, feed, samples_per_layer)?;
+    product_optics_with(frequency_hz, layers, backing, feed, samples_per_layer, &mut SolveBuffers::default())
+}
+
+/// [`product_optics`] in the vectors of `buffers`, which keep their room for the next solve: the
+/// same numbers, bit for bit, without allocating once the buffers have grown.
+pub fn product_optics_with(
+    frequency_hz: f64,
+    layers: &[Layer],
+    backing: Backing,
+    feed: Feed,
+    samples_per_layer: usize,
+    buffers: &mut SolveBuffers,
+) -> Result<ProductOptics, InputError> {
+    let solved = solve_sides_with(frequency_hz, layers, backing, feed, samples_per_layer, buffers)?;
     let product_absorptance =
         layers.iter().zip(&solved.absorptances).filter(|(layer, _)| layer.is_product).map(|(_, a)| *a).sum();
+    let (mut powers, mut values) = (std::mem::take(&mut buffers.powers), std::mem::take(&mut buffers.values));
     let max_product_power_density_per_m = (0..layers.len())
         .filter(|&layer_index| layers[layer_index].is_product)
-        .map(|layer_index| LayerSamples::new(&solved, layer_index, samples_per_layer).peak())
+        .map(|layer_index| {
+            LayerSamples::new(&solved, layer_index, samples_per_layer).peak_with(&mut powers, &mut values)
+        })
         .reduce(f64::max);
+    (buffers.powers, buffers.values) = (powers, values);
+    buffers.recycle(solved);
     Ok(ProductOptics { product_absorptance, max_product_power_density_per_m })
 }
 

@@ -129,8 +129,16 @@ impl<'a> LayerSamples<'a> {
         })
     }
 
-    /// The highest sample's density (what the maximum over [`LayerSamples::each`] gives).
+    /// [`LayerSamples::peak_with`] in new vectors.
+    #[cfg(test)]
     pub(super) fn peak(&self) -> f64 {
+        self.peak_with(&mut Vec::new(), &mut Vec::new())
+    }
+
+    /// The highest sample's density (what the maximum over [`LayerSamples::each`] gives), working
+    /// in `powers` and `values` (whatever they hold is replaced; a caller solving many stacks
+    /// passes the same two and keeps their room).
+    pub(super) fn peak_with(&self, powers: &mut Vec<Complex>, values: &mut Vec<f64>) -> f64 {
         if self.solved.slabs[self.layer_index].eps_imag == 0.0 {
             return 0.0;
         }
@@ -139,17 +147,20 @@ impl<'a> LayerSamples<'a> {
             let density = self.exact(index);
             highest = Some(highest.map_or(density, |max| max.max(density)));
         };
-        match self.approximate() {
-            Some(approximate) => {
-                let values = &approximate.values;
+        match self.approximate_into(powers, values) {
+            Some(shared_error) => {
+                let error = |value: f64| error_bound(shared_error, value);
                 // Every value and bound is finite here (`approximate` says so), so a plain comparison
                 // is `f64::max` (which the size-optimised build calls out of line).
-                let lower = values
-                    .iter()
-                    .map(|&value| value - approximate.error(value))
-                    .fold(f64::NEG_INFINITY, |lower, bound| if bound > lower { bound } else { lower });
+                let lower = values.iter().map(|&value| value - error(value)).fold(f64::NEG_INFINITY, |lower, bound| {
+                    if bound > lower {
+                        bound
+                    } else {
+                        lower
+                    }
+                });
                 for (index, &value) in values.iter().enumerate() {
-                    if value + approximate.error(value) >= lower {
+                    if value + error(value) >= lower {
                         evaluate(index);
                     }
                 }
@@ -159,9 +170,18 @@ impl<'a> LayerSamples<'a> {
         highest.unwrap_or(0.0)
     }
 
-    /// Every sample's density from the powers of one step, with its error bound; `None` when the
-    /// bound cannot rank them.
+    /// [`LayerSamples::approximate_into`] as an [`Approximation`].
+    #[cfg(test)]
     pub(super) fn approximate(&self) -> Option<Approximation> {
+        let mut values = Vec::new();
+        let shared_error = self.approximate_into(&mut Vec::new(), &mut values)?;
+        Some(Approximation { values, shared_error })
+    }
+
+    /// Every sample's density from the powers of one step (in `values`, the powers in `powers`),
+    /// with the part of its error bound common to all samples (see [`error_bound`]); `None` when
+    /// the bound cannot rank them.
+    fn approximate_into(&self, powers: &mut Vec<Complex>, values: &mut Vec<f64>) -> Option<f64> {
         let slab = self.solved.slabs[self.layer_index];
         let (k0, count, samples) = (self.solved.k0, self.solved.slabs.len(), self.samples);
         let phase = k0 * slab.thickness_m * (slab.index.re.abs() + slab.index.im.abs());
@@ -171,15 +191,15 @@ impl<'a> LayerSamples<'a> {
             return None;
         }
         let step = propagator(k0, slab.index, slab.thickness_m / (samples - 1) as f64);
-        let mut powers = Vec::with_capacity(samples);
+        powers.clear();
+        powers.reserve(samples);
         let mut power = Complex::ONE;
         for _ in 0..samples {
             powers.push(power);
             power = power * step;
         }
         let powers = powers.as_slice();
-        // Filled rather than zero-allocated: the zeroing allocation cost more than the loop.
-        let mut values = Vec::with_capacity(samples);
+        values.clear();
         values.resize(samples, 0.0);
         let mut shared_error = 0.0;
         let mut previous: Option<(f64, Complex, Complex)> = None;
@@ -223,9 +243,8 @@ impl<'a> LayerSamples<'a> {
             }
             previous = Some((weight, forward, backward));
         }
-        let approximation = Approximation { values, shared_error };
-        let finite = shared_error.is_finite() && approximation.values.iter().all(|value| value.is_finite());
-        finite.then_some(approximation)
+        let finite = shared_error.is_finite() && values.iter().all(|value| value.is_finite());
+        finite.then_some(shared_error)
     }
 }
 
@@ -238,17 +257,25 @@ fn same_bits(a: (f64, Complex, Complex), b: (f64, Complex, Complex)) -> bool {
 
 /// Approximate densities of a layer's samples and the bound on their distance from the exact
 /// ones, 1/m.
+#[cfg(test)]
 pub(super) struct Approximation {
     pub(super) values: Vec<f64>,
     /// The part of the bound common to all samples.
     shared_error: f64,
 }
 
+#[cfg(test)]
 impl Approximation {
     /// The bound for a sample of approximate density `value`: the shared part and
     /// [`VALUE_ROUNDING`] of the value.
     #[inline]
     pub(super) fn error(&self, value: f64) -> f64 {
-        self.shared_error + VALUE_ROUNDING * value.abs()
+        error_bound(self.shared_error, value)
     }
+}
+
+/// The bound for a sample of approximate density `value` given the shared part of the bound.
+#[inline]
+fn error_bound(shared_error: f64, value: f64) -> f64 {
+    shared_error + VALUE_ROUNDING * value.abs()
 }
