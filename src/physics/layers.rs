@@ -460,13 +460,7 @@ fn solve_one_sided(k0: f64, incident: Complex, slabs: &[Slab], exit: Exit) -> On
 /// Solve a stack fed from `incident` (a semi-infinite medium of that index) with a unit incident
 /// wave at the first slab's top face, in the vectors of `room` (amplitudes, absorptances;
 /// whatever they hold is replaced).
-fn solve_one_sided_in(
-    k0: f64,
-    incident: Complex,
-    slabs: &[Slab],
-    exit: Exit,
-    room: (Vec<(Complex, Complex)>, Vec<f64>),
-) -> OneSided {
+fn solve_one_sided_in(k0: f64, incident: Complex, slabs: &[Slab], exit: Exit, room: OneSidedRoom) -> OneSided {
     let (mut amplitudes, mut absorptances) = room;
     let count = slabs.len();
     // Pass 1, bottom to top: G at the bottom face of each slab, and G at its top face. Pass 2
@@ -573,21 +567,23 @@ struct Solved {
     transmittance: f64,
 }
 
+/// Room for one one-sided solution: its amplitudes and its absorptances.
+type OneSidedRoom = (Vec<(Complex, Complex)>, Vec<f64>);
+
 /// Vectors that a run of solves reuses (a zone march solves its bed hundreds of times): only
 /// their room is kept from one solve to the next, never what they held.
 #[derive(Default)]
 pub struct SolveBuffers {
     slabs: Vec<Slab>,
     sides: Vec<(FeedSide, f64, SideSolution)>,
-    /// (amplitudes, absorptances) of one-sided solutions.
-    one_sided: Vec<(Vec<(Complex, Complex)>, Vec<f64>)>,
+    one_sided: Vec<OneSidedRoom>,
     absorptances: Vec<f64>,
     powers: Vec<Complex>,
     values: Vec<f64>,
 }
 
 impl SolveBuffers {
-    fn one_sided_room(&mut self) -> (Vec<(Complex, Complex)>, Vec<f64>) {
+    fn one_sided_room(&mut self) -> OneSidedRoom {
         self.one_sided.pop().unwrap_or_default()
     }
 
