@@ -377,9 +377,11 @@ fn ignore_salt(material: &Material, state: &MaterialState, notes: &mut Vec<Strin
 }
 
 #[inline]
+#[allow(clippy::manual_range_contains)] // see the comparison's comment
 fn checked_temp(temp_c: f64) -> Result<f64, InputError> {
     // The accepted case inline: root searches check every temperature they try.
-    if temp_c.is_finite() && (TEMP_MIN_C..=TEMP_MAX_C).contains(&temp_c) {
+    // Plain comparisons (a NaN fails both): the size-optimised build calls `contains` out of line.
+    if temp_c >= TEMP_MIN_C && temp_c <= TEMP_MAX_C {
         return Ok(temp_c);
     }
     require_in("temp_c", temp_c, TEMP_MIN_C, TEMP_MAX_C)

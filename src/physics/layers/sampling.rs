@@ -51,6 +51,7 @@ impl<'a> LayerSamples<'a> {
 
     /// Local depth of sample `index`, m. Exact faces at both ends: the last sample sits on the
     /// bottom face, not near it.
+    #[inline]
     fn depth(&self, index: usize) -> f64 {
         let thickness_m = self.solved.slabs[self.layer_index].thickness_m;
         let last = self.samples - 1;
