@@ -305,6 +305,43 @@ pub fn permittivity_value(
     finished(material, temp_c, value)
 }
 
+/// [`permittivity_value`] at one moisture and salt for many frequencies and temperatures, with
+/// what does not change between them worked out once: for the frozen-food model, the food's state
+/// at the moisture and the mixing terms of fat and the solids (a zone march looks its product up
+/// hundreds of times at one moisture). Every value and error is [`permittivity_value`]'s, bit for
+/// bit.
+#[derive(Debug, Clone)]
+pub struct PermittivityCurve<'a> {
+    material: &'a Material,
+    moisture_wb: Option<f64>,
+    salt_pct: Option<f64>,
+    frozen: Option<models::FrozenCurve>,
+}
+
+impl Material {
+    /// This material's permittivity at `moisture_wb` and `salt_pct` (as in [`MaterialState`]).
+    pub fn permittivity_curve(&self, moisture_wb: Option<f64>, salt_pct: Option<f64>) -> PermittivityCurve<'_> {
+        // A moisture or salt the checks refuse is never prepared: every value refuses it.
+        let state = MaterialState { temp_c: 0.0, moisture_wb, salt_pct };
+        let frozen = if state.checked().is_ok() { models::FrozenCurve::new(self, moisture_wb, salt_pct) } else { None };
+        PermittivityCurve { material: self, moisture_wb, salt_pct, frozen }
+    }
+}
+
+impl PermittivityCurve<'_> {
+    /// [`permittivity_value`] of the material at `temp_c` and the curve's moisture and salt.
+    pub fn value(&self, frequency_hz: f64, temp_c: f64) -> Result<ComplexPermittivity, InputError> {
+        let state = MaterialState { temp_c, moisture_wb: self.moisture_wb, salt_pct: self.salt_pct };
+        let Some(frozen) = &self.frozen else {
+            return permittivity_value(self.material, frequency_hz, &state);
+        };
+        // The checks of `permittivity_value`, in its order, then its frozen-food arm.
+        let frequency_hz = checked_frequency(frequency_hz)?;
+        state.checked()?;
+        finished(self.material, temp_c, frozen.eps(frequency_hz, temp_c))
+    }
+}
+
 /// A model's eps' - j eps'' as a checked permittivity.
 fn finished(
     material: &Material,
@@ -340,9 +377,11 @@ fn ignore_salt(material: &Material, state: &MaterialState, notes: &mut Vec<Strin
 }
 
 #[inline]
+#[allow(clippy::manual_range_contains)] // see the comparison's comment
 fn checked_temp(temp_c: f64) -> Result<f64, InputError> {
     // The accepted case inline: root searches check every temperature they try.
-    if temp_c.is_finite() && (TEMP_MIN_C..=TEMP_MAX_C).contains(&temp_c) {
+    // Plain comparisons (a NaN fails both): the size-optimised build calls `contains` out of line.
+    if temp_c >= TEMP_MIN_C && temp_c <= TEMP_MAX_C {
         return Ok(temp_c);
     }
     require_in("temp_c", temp_c, TEMP_MIN_C, TEMP_MAX_C)

@@ -253,7 +253,7 @@ pub(crate) fn plan_without_sensitivity(scenario: &Scenario) -> Result<Plan, Vec<
 /// validated: no warnings, no sensitivity; with `march` the depth profiles and the zone march too,
 /// without it only the sizing and the dielectric states. Its numbers are those of [`plan`].
 pub(crate) fn plan_parts(scenario: &Scenario, product: &Product, march: bool) -> Result<Plan, Vec<InputError>> {
-    plan_core(scenario, product, if march { &PlanDepth::SEARCH_MARCH } else { &PlanDepth::ROW_SIZING })
+    plan_core(scenario, product, if march { &PlanDepth::SEARCH_MARCH } else { &PlanDepth::SEARCH_SIZING })
 }
 
 fn plan_to_depth(scenario: &Scenario, depth: &PlanDepth) -> Result<Plan, Vec<InputError>> {
@@ -304,24 +304,34 @@ struct PlanDepth {
     warnings: bool,
     /// Run the sensitivity study (never inside a sensitivity row: no recursion).
     sensitivity: bool,
+    /// Write the texts: the cautions, the material and its sources, the permittivity models of the
+    /// dielectric states and whether their data cover them. A sensitivity row reads none of them:
+    /// without, its plan carries no cautions, empty texts and `in_range` true, and its numbers
+    /// (and its refusals) are the same.
+    texts: bool,
 }
 
 impl PlanDepth {
     /// The whole plan.
-    const FULL: PlanDepth = PlanDepth { depth_profiles: true, zone_march: true, warnings: true, sensitivity: true };
+    const FULL: PlanDepth =
+        PlanDepth { depth_profiles: true, zone_march: true, warnings: true, sensitivity: true, texts: true };
     /// A sensitivity row whose input moves the product's permittivity: sizing, dielectric states
     /// and depth profiles.
     const ROW_DIELECTRIC: PlanDepth =
-        PlanDepth { depth_profiles: true, zone_march: false, warnings: false, sensitivity: false };
+        PlanDepth { depth_profiles: true, zone_march: false, warnings: false, sensitivity: false, texts: false };
     /// A sensitivity row whose input leaves the permittivity alone: sizing and dielectric states.
     const ROW_SIZING: PlanDepth =
-        PlanDepth { depth_profiles: false, zone_march: false, warnings: false, sensitivity: false };
+        PlanDepth { depth_profiles: false, zone_march: false, warnings: false, sensitivity: false, texts: false };
+    /// The design search's sizing: sizing and dielectric states, with the texts (it reads whether
+    /// the material data cover the states).
+    const SEARCH_SIZING: PlanDepth =
+        PlanDepth { depth_profiles: false, zone_march: false, warnings: false, sensitivity: false, texts: true };
     /// Everything but the sensitivity study (a band comparison row).
     const NO_SENSITIVITY: PlanDepth =
-        PlanDepth { depth_profiles: true, zone_march: true, warnings: true, sensitivity: false };
+        PlanDepth { depth_profiles: true, zone_march: true, warnings: true, sensitivity: false, texts: true };
     /// The design search's bed figures: sizing, depth profiles and the zone march.
     const SEARCH_MARCH: PlanDepth =
-        PlanDepth { depth_profiles: true, zone_march: true, warnings: false, sensitivity: false };
+        PlanDepth { depth_profiles: true, zone_march: true, warnings: false, sensitivity: false, texts: true };
 }
 
 fn plan_core(scenario: &Scenario, product: &Product, depth: &PlanDepth) -> Result<Plan, Vec<InputError>> {
@@ -408,7 +418,15 @@ fn plan_core(scenario: &Scenario, product: &Product, depth: &PlanDepth) -> Resul
     );
 
     let dielectric_at = |temp_c: f64, moisture_wb: f64| -> Result<DielectricState, Vec<InputError>> {
-        let lookup = product.permittivity(frequency_hz, temp_c, moisture_wb).map_err(|e| vec![e.within("product")])?;
+        let lookup = if depth.texts {
+            product
+                .permittivity(frequency_hz, temp_c, moisture_wb)
+                .map(|lookup| (lookup.eps, lookup.in_range, lookup.model))
+        } else {
+            // The same number and the same refusals, without the texts.
+            product.permittivity_value(frequency_hz, temp_c, moisture_wb).map(|eps| (eps, true, String::new()))
+        };
+        let (eps, in_range, model) = lookup.map_err(|e| vec![e.within("product")])?;
         Ok(DielectricState {
             temp_c,
             moisture_wb,
@@ -416,11 +434,11 @@ fn plan_core(scenario: &Scenario, product: &Product, depth: &PlanDepth) -> Resul
                 .material
                 .frozen_fraction_at(temp_c, Some(moisture_wb))
                 .map_err(|e| vec![e.within("product")])?,
-            eps_real: lookup.eps.eps_real,
-            eps_imag: lookup.eps.eps_imag,
-            penetration_depth_m: penetration_depth_m(frequency_hz, lookup.eps),
-            in_range: lookup.in_range,
-            model: lookup.model.clone(),
+            eps_real: eps.eps_real,
+            eps_imag: eps.eps_imag,
+            penetration_depth_m: penetration_depth_m(frequency_hz, eps),
+            in_range,
+            model,
         })
     };
     let dielectric_inlet = dielectric_at(scenario.inlet.temp_c, moisture_in)?;
@@ -529,11 +547,19 @@ fn plan_core(scenario: &Scenario, product: &Product, depth: &PlanDepth) -> Resul
         depth_profile,
         uniformity,
         warnings: Vec::new(),
-        cautions: cautions(scenario.frequency_mhz, selection.class.anode_kv, is_combustible(&product.material)),
+        cautions: if depth.texts {
+            cautions(scenario.frequency_mhz, selection.class.anode_kv, is_combustible(&product.material))
+        } else {
+            Vec::new()
+        },
         assumptions: Assumptions {
             process: scenario.process,
-            material: format!("{} ({})", product.material.name, product.material.label),
-            material_source: product.material.source_summary(),
+            material: if depth.texts {
+                format!("{} ({})", product.material.name, product.material.label)
+            } else {
+                String::new()
+            },
+            material_source: if depth.texts { product.material.source_summary() } else { String::new() },
             inlet_moisture_wb: moisture_in,
             outlet_moisture_wb: moisture_out,
             salt_pct: product.salt_pct,

@@ -22,7 +22,7 @@ use crate::materials::composition::{self, Composition};
 use crate::materials::freezing;
 use crate::materials::ice;
 use crate::materials::library::{DielectricModel, Material, ThermalModel};
-use crate::materials::mixing::mix;
+use crate::materials::mixing::{mix, mix_phases, mixing_term, MixingRule, Phase};
 use crate::materials::saline;
 use crate::materials::water;
 use crate::physics::complex::Complex;
@@ -315,28 +315,69 @@ fn frozen_parts(
     moisture_wb: Option<f64>,
     salt_pct: Option<f64>,
 ) -> Option<FrozenParts> {
-    let DielectricModel::Frozen { solids_eps_real, solids_eps_imag, salt_pct: default_salt, mixing_rule, .. } =
-        &material.dielectric
-    else {
-        return None;
-    };
-    let (food, tf) = food_state(material, moisture_wb)?;
-    let salt_fraction = salt_pct.unwrap_or(*default_salt) / 100.0;
-    let phases = frozen_phases(&food, tf, temp_c, salt_fraction);
-    let brine = saline::permittivity(frequency_hz, temp_c, phases.brine_mass_fraction, None);
-    let ice_eps = ice::permittivity(frequency_hz, temp_c.min(0.0));
-    let solids = Complex::new(*solids_eps_real, -solids_eps_imag);
-    let eps = mix(
-        &[(phases.ice, ice_eps), (phases.brine, brine.eps), (phases.fat, FAT_EPS), (phases.solids, solids)],
-        *mixing_rule,
-    );
-    Some(FrozenParts {
-        food,
-        freezing_point_c: tf,
-        phases,
-        brine_conductivity_s_per_m: brine.conductivity_s_per_m,
-        eps,
-    })
+    FrozenCurve::new(material, moisture_wb, salt_pct).map(|curve| curve.parts(frequency_hz, temp_c))
+}
+
+/// The frozen-food model at one moisture and salt, for many temperatures: the food's state, its
+/// freezing point and the mixing terms of the phases whose permittivity is constant (fat and the
+/// solids) are worked out once. Every number is the one a lookup from scratch gives, bit for bit:
+/// [`frozen_parts`] goes through this too.
+#[derive(Debug, Clone)]
+pub(crate) struct FrozenCurve {
+    food: Composition,
+    freezing_point_c: Option<f64>,
+    salt_fraction: f64,
+    mixing_rule: MixingRule,
+    fat_term: Complex,
+    solids_term: Complex,
+}
+
+impl FrozenCurve {
+    /// `None` unless the material is a frozen-food model with a composition.
+    pub(crate) fn new(material: &Material, moisture_wb: Option<f64>, salt_pct: Option<f64>) -> Option<Self> {
+        let DielectricModel::Frozen { solids_eps_real, solids_eps_imag, salt_pct: default_salt, mixing_rule, .. } =
+            &material.dielectric
+        else {
+            return None;
+        };
+        let (food, freezing_point_c) = food_state(material, moisture_wb)?;
+        let solids = Complex::new(*solids_eps_real, -solids_eps_imag);
+        Some(FrozenCurve {
+            food,
+            freezing_point_c,
+            salt_fraction: salt_pct.unwrap_or(*default_salt) / 100.0,
+            mixing_rule: *mixing_rule,
+            fat_term: mixing_term(FAT_EPS, *mixing_rule),
+            solids_term: mixing_term(solids, *mixing_rule),
+        })
+    }
+
+    fn parts(&self, frequency_hz: f64, temp_c: f64) -> FrozenParts {
+        let phases = frozen_phases(&self.food, self.freezing_point_c, temp_c, self.salt_fraction);
+        let brine = saline::permittivity(frequency_hz, temp_c, phases.brine_mass_fraction, None);
+        let ice_eps = ice::permittivity(frequency_hz, temp_c.min(0.0));
+        let eps = mix_phases(
+            &[
+                (phases.ice, Phase::Permittivity(ice_eps)),
+                (phases.brine, Phase::Permittivity(brine.eps)),
+                (phases.fat, Phase::Term(self.fat_term)),
+                (phases.solids, Phase::Term(self.solids_term)),
+            ],
+            self.mixing_rule,
+        );
+        FrozenParts {
+            food: self.food,
+            freezing_point_c: self.freezing_point_c,
+            phases,
+            brine_conductivity_s_per_m: brine.conductivity_s_per_m,
+            eps,
+        }
+    }
+
+    /// The permittivity at `temp_c`, as [`frozen_eps`] gives it.
+    pub(crate) fn eps(&self, frequency_hz: f64, temp_c: f64) -> Complex {
+        self.parts(frequency_hz, temp_c).eps
+    }
 }
 
 /// The frozen-food model's permittivity alone (see [`frozen_value`]).

@@ -451,12 +451,23 @@ fn fresnel(from: Complex, to: Complex) -> Complex {
     (from - to) / (from + to)
 }
 
-/// Solve a stack fed from `incident` (a semi-infinite medium of that index) with a unit incident
-/// wave at the first slab's top face.
+/// [`solve_one_sided_in`] in new vectors.
+#[cfg(test)]
 fn solve_one_sided(k0: f64, incident: Complex, slabs: &[Slab], exit: Exit) -> OneSided {
+    solve_one_sided_in(k0, incident, slabs, exit, (Vec::new(), Vec::new()))
+}
+
+/// Solve a stack fed from `incident` (a semi-infinite medium of that index) with a unit incident
+/// wave at the first slab's top face, in the vectors of `room` (amplitudes, absorptances;
+/// whatever they hold is replaced).
+fn solve_one_sided_in(k0: f64, incident: Complex, slabs: &[Slab], exit: Exit, room: OneSidedRoom) -> OneSided {
+    let (mut amplitudes, mut absorptances) = room;
     let count = slabs.len();
-    // Pass 1, bottom to top: G at the bottom face of each slab, and G at its top face.
-    let mut ratios = vec![(Complex::ZERO, Complex::ZERO); count];
+    // Pass 1, bottom to top: G at the bottom face of each slab, and G at its top face. Pass 2
+    // writes each slab's amplitudes over its ratios once it has read them, so one vector holds
+    // both.
+    amplitudes.clear();
+    amplitudes.resize(count, (Complex::ZERO, Complex::ZERO));
     for index in (0..count).rev() {
         let slab = slabs[index];
         let bottom_ratio = if index + 1 == count {
@@ -466,27 +477,29 @@ fn solve_one_sided(k0: f64, incident: Complex, slabs: &[Slab], exit: Exit) -> On
             }
         } else {
             let interface = fresnel(slab.index, slabs[index + 1].index);
-            let below = ratios[index + 1].1;
+            let below = amplitudes[index + 1].1;
             (interface + below) / (Complex::ONE + interface * below)
         };
         let round_trip = propagator(k0, slab.index, 2.0 * slab.thickness_m);
-        ratios[index] = (bottom_ratio, bottom_ratio * round_trip);
+        amplitudes[index] = (bottom_ratio, bottom_ratio * round_trip);
     }
-    let top_ratio = |index: usize| ratios[index].1;
+    let top_ratio_first = amplitudes[0].1;
     let entry = fresnel(incident, slabs[0].index);
-    let reflection = (entry + top_ratio(0)) / (Complex::ONE + entry * top_ratio(0));
+    let reflection = (entry + top_ratio_first) / (Complex::ONE + entry * top_ratio_first);
 
     // Pass 2, top to bottom: forward amplitudes from the continuity of E and H.
-    let mut amplitudes = Vec::with_capacity(count);
-    let mut forward = (Complex::ONE + entry) / (Complex::ONE + entry * top_ratio(0));
+    let mut forward = (Complex::ONE + entry) / (Complex::ONE + entry * top_ratio_first);
     let mut exit_forward = Complex::ZERO;
     for index in 0..count {
         let slab = slabs[index];
         let at_bottom = forward * propagator(k0, slab.index, slab.thickness_m);
-        amplitudes.push((forward, ratios[index].0 * at_bottom));
+        let bottom_ratio = amplitudes[index].0;
+        amplitudes[index] = (forward, bottom_ratio * at_bottom);
         if index + 1 < count {
             let interface = fresnel(slab.index, slabs[index + 1].index);
-            forward = at_bottom * (Complex::ONE + interface) / (Complex::ONE + interface * top_ratio(index + 1));
+            // The slab below still holds its ratios.
+            let top_ratio_below = amplitudes[index + 1].1;
+            forward = at_bottom * (Complex::ONE + interface) / (Complex::ONE + interface * top_ratio_below);
         } else if let Exit::Medium(exit_index) = exit {
             exit_forward = at_bottom * (Complex::ONE + fresnel(slab.index, exit_index));
         }
@@ -500,11 +513,13 @@ fn solve_one_sided(k0: f64, incident: Complex, slabs: &[Slab], exit: Exit) -> On
         Exit::Medium(exit_index) => exit_index.re * exit_forward.norm_sqr() / incident_index_re,
         Exit::Short => 0.0,
     };
-    let absorptances = slabs
-        .iter()
-        .zip(&amplitudes)
-        .map(|(slab, &(forward, backward))| slab_absorptance(k0, *slab, forward, backward) / incident_index_re)
-        .collect();
+    absorptances.clear();
+    absorptances.extend(
+        slabs
+            .iter()
+            .zip(&amplitudes)
+            .map(|(slab, &(forward, backward))| slab_absorptance(k0, *slab, forward, backward) / incident_index_re),
+    );
     OneSided { reflection, reflectance, transmittance, incident_index_re, amplitudes, absorptances }
 }
 
@@ -532,17 +547,56 @@ fn slab_of(layer: &Layer) -> Slab {
     }
 }
 
+/// A feeding side's solution: its own, or the top-fed one (a mirrored stack fed from below, whose
+/// solution is the top-fed one number for number, read from the other end).
+enum SideSolution {
+    Own(OneSided),
+    TopFed,
+}
+
 /// The one-sided solutions of a stack and what they give per layer, before any sampling.
 struct Solved {
     k0: f64,
     slabs: Vec<Slab>,
     /// (side, share of the incident power, solution); the bottom-fed solution holds its slabs in
     /// reverse order.
-    sides: Vec<(FeedSide, f64, OneSided)>,
+    sides: Vec<(FeedSide, f64, SideSolution)>,
     /// Per layer in the order given, as fractions of the total incident power.
     absorptances: Vec<f64>,
     reflectance: f64,
     transmittance: f64,
+}
+
+/// Room for one one-sided solution: its amplitudes and its absorptances.
+type OneSidedRoom = (Vec<(Complex, Complex)>, Vec<f64>);
+
+/// Vectors that a run of solves reuses (a zone march solves its bed hundreds of times): only
+/// their room is kept from one solve to the next, never what they held.
+#[derive(Default)]
+pub struct SolveBuffers {
+    slabs: Vec<Slab>,
+    sides: Vec<(FeedSide, f64, SideSolution)>,
+    one_sided: Vec<OneSidedRoom>,
+    absorptances: Vec<f64>,
+    powers: Vec<Complex>,
+    values: Vec<f64>,
+}
+
+impl SolveBuffers {
+    fn one_sided_room(&mut self) -> OneSidedRoom {
+        self.one_sided.pop().unwrap_or_default()
+    }
+
+    /// Take back the vectors of a solution.
+    fn recycle(&mut self, solved: Solved) {
+        let Solved { slabs, mut sides, absorptances, .. } = solved;
+        for (_, _, solution) in sides.drain(..) {
+            if let SideSolution::Own(one) = solution {
+                self.one_sided.push((one.amplitudes, one.absorptances));
+            }
+        }
+        (self.slabs, self.sides, self.absorptances) = (slabs, sides, absorptances);
+    }
 }
 
 fn solve_sides(
@@ -552,9 +606,23 @@ fn solve_sides(
     feed: Feed,
     samples_per_layer: usize,
 ) -> Result<Solved, InputError> {
+    solve_sides_with(frequency_hz, layers, backing, feed, samples_per_layer, &mut SolveBuffers::default())
+}
+
+/// [`solve_sides`] in the vectors of `buffers` (give them back with [`SolveBuffers::recycle`]).
+fn solve_sides_with(
+    frequency_hz: f64,
+    layers: &[Layer],
+    backing: Backing,
+    feed: Feed,
+    samples_per_layer: usize,
+    buffers: &mut SolveBuffers,
+) -> Result<Solved, InputError> {
     validate_request(frequency_hz, layers, backing, feed, samples_per_layer)?;
     let k0 = 2.0 * PI * frequency_hz / SPEED_OF_LIGHT_M_PER_S;
-    let slabs: Vec<Slab> = layers.iter().map(slab_of).collect();
+    let mut slabs = std::mem::take(&mut buffers.slabs);
+    slabs.clear();
+    slabs.extend(layers.iter().map(slab_of));
     let air = Complex::ONE;
     let backing_index = match backing {
         Backing::Air => Some(air),
@@ -562,7 +630,8 @@ fn solve_sides(
         Backing::Material(eps) => Some(eps.refractive_index()),
     };
 
-    let mut sides: Vec<(FeedSide, f64, OneSided)> = Vec::with_capacity(2);
+    let mut sides = std::mem::take(&mut buffers.sides);
+    sides.clear();
     let top_share = match feed {
         Feed::Top => Some(1.0),
         Feed::BothSides => Some(0.5),
@@ -575,7 +644,8 @@ fn solve_sides(
     };
     if let Some(share) = top_share {
         let exit = backing_index.map_or(Exit::Short, Exit::Medium);
-        sides.push((FeedSide::Top, share, solve_one_sided(k0, air, &slabs, exit)));
+        let room = buffers.one_sided_room();
+        sides.push((FeedSide::Top, share, SideSolution::Own(solve_one_sided_in(k0, air, &slabs, exit, room))));
     }
     if let (Some(share), Some(incident)) = (bottom_share, backing_index) {
         // Air on both sides and a stack that reads the same both ways (one bed of product): the
@@ -583,21 +653,24 @@ fn solve_sides(
         let mirrored = incident.re.to_bits() == air.re.to_bits()
             && incident.im.to_bits() == air.im.to_bits()
             && slabs.iter().zip(slabs.iter().rev()).all(|(a, b)| a.same_bits(b));
-        let one = match sides.first() {
-            Some((_, _, top)) if mirrored => top.clone(),
-            _ => {
-                let reversed: Vec<Slab> = slabs.iter().rev().copied().collect();
-                solve_one_sided(k0, incident, &reversed, Exit::Medium(air))
-            }
+        let one = if mirrored && !sides.is_empty() {
+            SideSolution::TopFed
+        } else {
+            let reversed: Vec<Slab> = slabs.iter().rev().copied().collect();
+            let room = buffers.one_sided_room();
+            SideSolution::Own(solve_one_sided_in(k0, incident, &reversed, Exit::Medium(air), room))
         };
         sides.push((FeedSide::Bottom, share, one));
     }
 
     let count = layers.len();
-    let mut absorptances = vec![0.0; count];
+    let mut solved = Solved { k0, slabs, sides, absorptances: Vec::new(), reflectance: 0.0, transmittance: 0.0 };
+    let mut absorptances = std::mem::take(&mut buffers.absorptances);
+    absorptances.clear();
+    absorptances.resize(count, 0.0);
     let mut reflectance = 0.0;
     let mut transmittance = 0.0;
-    for (side, share, one) in &sides {
+    for (side, share, one) in solved.sides() {
         for (position, absorbed) in one.absorptances.iter().enumerate() {
             let layer_index = match side {
                 FeedSide::Top => position,
@@ -608,7 +681,26 @@ fn solve_sides(
         reflectance += share * one.reflectance;
         transmittance += share * one.transmittance;
     }
-    Ok(Solved { k0, slabs, sides, absorptances, reflectance, transmittance })
+    solved.absorptances = absorptances;
+    solved.reflectance = reflectance;
+    solved.transmittance = transmittance;
+    Ok(solved)
+}
+
+impl Solved {
+    /// The feeding sides, each with its share of the incident power and its solution.
+    fn sides(&self) -> impl Iterator<Item = (FeedSide, f64, &OneSided)> + '_ {
+        self.sides.iter().filter_map(move |(side, share, solution)| {
+            let one = match solution {
+                SideSolution::Own(one) => one,
+                SideSolution::TopFed => match self.sides.first() {
+                    Some((FeedSide::Top, _, SideSolution::Own(top))) => top,
+                    _ => return None,
+                },
+            };
+            Some((*side, *share, one))
+        })
+    }
 }
 
 /// Solve without the uniformity assessment (the part [`solve_stack_with`] adds).
@@ -621,11 +713,10 @@ fn solve_unassessed(
 ) -> Result<StackSolution, InputError> {
     let solved = solve_sides(frequency_hz, layers, backing, feed, samples_per_layer)?;
     let sides = solved
-        .sides
-        .iter()
+        .sides()
         .map(|(side, share, one)| SideResult {
-            side: *side,
-            incident_share: *share,
+            side,
+            incident_share: share,
             reflectance: one.reflectance,
             transmittance: one.transmittance,
             absorptance: one.absorptances.iter().sum(),
@@ -694,13 +785,31 @@ pub fn product_optics(
     feed: Feed,
     samples_per_layer: usize,
 ) -> Result<ProductOptics, InputError> {
-    let solved = solve_sides(frequency_hz, layers, backing, feed, samples_per_layer)?;
+    product_optics_with(frequency_hz, layers, backing, feed, samples_per_layer, &mut SolveBuffers::default())
+}
+
+/// [`product_optics`] in the vectors of `buffers`, which keep their room for the next solve: the
+/// same numbers, bit for bit, without allocating once the buffers have grown.
+pub fn product_optics_with(
+    frequency_hz: f64,
+    layers: &[Layer],
+    backing: Backing,
+    feed: Feed,
+    samples_per_layer: usize,
+    buffers: &mut SolveBuffers,
+) -> Result<ProductOptics, InputError> {
+    let solved = solve_sides_with(frequency_hz, layers, backing, feed, samples_per_layer, buffers)?;
     let product_absorptance =
         layers.iter().zip(&solved.absorptances).filter(|(layer, _)| layer.is_product).map(|(_, a)| *a).sum();
+    let (mut powers, mut values) = (std::mem::take(&mut buffers.powers), std::mem::take(&mut buffers.values));
     let max_product_power_density_per_m = (0..layers.len())
         .filter(|&layer_index| layers[layer_index].is_product)
-        .map(|layer_index| LayerSamples::new(&solved, layer_index, samples_per_layer).peak())
+        .map(|layer_index| {
+            LayerSamples::new(&solved, layer_index, samples_per_layer).peak_with(&mut powers, &mut values)
+        })
         .reduce(f64::max);
+    (buffers.powers, buffers.values) = (powers, values);
+    buffers.recycle(solved);
     Ok(ProductOptics { product_absorptance, max_product_power_density_per_m })
 }
 

@@ -7,7 +7,9 @@
 //! power from each (the layers module's incoherent two-sided model).
 
 use crate::error::InputError;
-use crate::physics::layers::{product_optics, solve_stack, Backing, Feed, Layer, ProductOptics, StackSolution};
+use crate::physics::layers::{
+    product_optics_with, solve_stack, Backing, Feed, Layer, ProductOptics, SolveBuffers, StackSolution,
+};
 use crate::physics::permittivity::ComplexPermittivity;
 use crate::scenario::{BackingSpec, FeedSides, Scenario};
 
@@ -80,13 +82,15 @@ pub struct Bed {
     layers: Vec<Layer>,
     backing: Backing,
     feed: Feed,
+    /// The solver's vectors, kept from one zone's solve to the next.
+    buffers: SolveBuffers,
 }
 
 impl Bed {
     /// The scenario's bed (its product's permittivity is set by each solve).
     pub fn new(scenario: &Scenario) -> Self {
         let (layers, backing, feed) = stack(scenario, ComplexPermittivity::VACUUM);
-        Bed { layers, backing, feed }
+        Bed { layers, backing, feed, buffers: SolveBuffers::default() }
     }
 
     /// The product's absorptance and peak power density at permittivity `product_eps`, with the
@@ -95,7 +99,7 @@ impl Bed {
         if let Some(product) = self.layers.first_mut() {
             product.permittivity = product_eps;
         }
-        product_optics(frequency_hz, &self.layers, self.backing, self.feed, SAMPLES_PER_LAYER)
+        product_optics_with(frequency_hz, &self.layers, self.backing, self.feed, SAMPLES_PER_LAYER, &mut self.buffers)
             .map_err(|error| error.within("tunnel.load_stack"))
     }
 }

@@ -8,7 +8,7 @@
 //! global, so two plans computed at once can never see each other's setting.
 
 use crate::error::InputError;
-use crate::materials::{self, Material, MaterialState, PermittivityLookup};
+use crate::materials::{self, Material, MaterialState, PermittivityCurve, PermittivityLookup};
 use crate::physics::permittivity::ComplexPermittivity;
 use crate::scenario::Scenario;
 use crate::sizing::energy_balance::ProductThermal;
@@ -91,12 +91,47 @@ impl Product {
         Ok(eps)
     }
 
+    /// [`Product::permittivity_value`] at one moisture for many temperatures (see
+    /// [`PermittivityCurve`]): the same values and errors, bit for bit.
+    pub fn permittivity_curve(&self, moisture_wb: f64) -> ProductPermittivity<'_> {
+        ProductPermittivity {
+            product: self,
+            moisture: moisture_wb,
+            curve: self.material.permittivity_curve(Some(moisture_wb), self.salt_pct),
+        }
+    }
+
     fn checked_multiplier(&self) -> Result<f64, InputError> {
         let multiplier = self.loss_factor_multiplier;
         if !(multiplier.is_finite() && multiplier >= 0.0) {
             return Err(InputError::new("loss_factor_multiplier", multiplier, "a finite factor of 0 or more"));
         }
         Ok(multiplier)
+    }
+}
+
+/// The product's permittivity at one moisture ([`Product::permittivity_curve`]).
+#[derive(Debug, Clone)]
+pub struct ProductPermittivity<'a> {
+    product: &'a Product,
+    moisture: f64,
+    curve: PermittivityCurve<'a>,
+}
+
+impl ProductPermittivity<'_> {
+    /// The moisture the curve is at, wet basis.
+    pub fn moisture_wb(&self) -> f64 {
+        self.moisture
+    }
+
+    /// [`Product::permittivity_value`] at `temp_c` and the curve's moisture.
+    pub fn value(&self, frequency_hz: f64, temp_c: f64) -> Result<ComplexPermittivity, InputError> {
+        let multiplier = self.product.checked_multiplier()?;
+        let mut eps = self.curve.value(frequency_hz, temp_c)?;
+        if multiplier != 1.0 {
+            eps.eps_imag *= multiplier;
+        }
+        Ok(eps)
     }
 }
 
@@ -160,6 +195,35 @@ mod tests {
             }
         }
         assert_eq!(beef(-1.0).permittivity_value(915e6, 10.0, 0.74).unwrap_err().field, "loss_factor_multiplier");
+    }
+
+    #[test]
+    fn the_curve_gives_the_value_alone_bit_for_bit() {
+        let bits = |eps: ComplexPermittivity| (eps.eps_real.to_bits(), eps.eps_imag.to_bits());
+        for multiplier in [0.0, 0.8, 1.0, 1.2] {
+            let product = beef(multiplier);
+            for moisture in [0.5, 0.74] {
+                let curve = product.permittivity_curve(moisture);
+                for temp_c in [-40.0, -18.0, -4.0, -1.5, -0.25, 0.0, 10.0, 72.0] {
+                    let value = product.permittivity_value(915e6, temp_c, moisture).unwrap();
+                    assert_eq!(
+                        bits(curve.value(915e6, temp_c).unwrap()),
+                        bits(value),
+                        "{multiplier} {moisture} {temp_c}"
+                    );
+                }
+            }
+        }
+        // The same refusals: the multiplier first, then the state.
+        assert_eq!(beef(-1.0).permittivity_curve(0.74).value(915e6, 10.0).unwrap_err().field, "loss_factor_multiplier");
+        assert_eq!(
+            beef(1.0).permittivity_curve(0.74).value(915e6, 400.0).unwrap_err(),
+            beef(1.0).permittivity_value(915e6, 400.0, 0.74).unwrap_err()
+        );
+        assert_eq!(
+            beef(1.0).permittivity_curve(2.0).value(915e6, 10.0).unwrap_err(),
+            beef(1.0).permittivity_value(915e6, 10.0, 2.0).unwrap_err()
+        );
     }
 
     #[test]

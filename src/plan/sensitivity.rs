@@ -390,6 +390,40 @@ mod tests {
     }
 
     #[test]
+    fn a_row_without_texts_has_the_numbers_of_one_with_them() {
+        // Every demo load, both row depths: the plan without texts is the plan with them, once
+        // the texts it leaves out are blanked (exact: the same functions compute the numbers).
+        let loads = [
+            include_str!("../../demo-loads/tempering-beef-blocks.json"),
+            include_str!("../../demo-loads/layered-meal-trays.json"),
+            include_str!("../../demo-loads/drying-sand-cores.json"),
+            include_str!("../../demo-loads/pasteurising-potato-trays.json"),
+            include_str!("../../demo-loads/rf-drying-cotton-packages.json"),
+            include_str!("../../demo-loads/curing-rubber-profile.json"),
+        ];
+        for text in loads {
+            let scenario = crate::scenario::parse_scenario(text).expect("a demo load parses");
+            let product = Product::from_scenario(&scenario).expect("a demo load's product");
+            for depth in [PlanDepth::ROW_SIZING, PlanDepth::ROW_DIELECTRIC] {
+                let with_texts = PlanDepth { texts: true, ..depth };
+                let plain = serde_json::to_value(plan_core(&scenario, &product, &depth).expect("plans")).unwrap();
+                let mut full =
+                    serde_json::to_value(plan_core(&scenario, &product, &with_texts).expect("plans")).unwrap();
+                assert!(!full["cautions"].as_array().unwrap().is_empty());
+                full["cautions"] = serde_json::json!([]);
+                full["assumptions"]["material"] = serde_json::json!("");
+                full["assumptions"]["material_source"] = serde_json::json!("");
+                for state in ["dielectric_inlet", "dielectric_outlet"] {
+                    assert!(!full[state]["model"].as_str().unwrap().is_empty());
+                    full[state]["model"] = serde_json::json!("");
+                    full[state]["in_range"] = serde_json::json!(true);
+                }
+                assert_eq!(plain, full, "{}", scenario.name);
+            }
+        }
+    }
+
+    #[test]
     fn percent_text() {
         assert_eq!(signed_percent(0.1), "+10 %");
         assert_eq!(signed_percent(-0.05), "-5 %");

@@ -90,7 +90,7 @@
 //! taken off in proportion), no moisture gradient through the bed.
 
 use super::depth_profile::Bed;
-use super::product::Product;
+use super::product::{Product, ProductPermittivity};
 use super::warnings::Warning;
 use super::Zone;
 use crate::error::InputError;
@@ -104,6 +104,7 @@ use crate::sizing::tunnel::Tunnel;
 use serde::Serialize;
 use std::cell::RefCell;
 use std::collections::HashMap;
+use std::hash::{BuildHasherDefault, Hasher};
 
 /// Fraction of the power left after a pass that the walls, chokes and openings of a metal tunnel
 /// take before the next pass (common practice, from memory: a few per cent for a closed metal
@@ -331,31 +332,19 @@ impl<'a> Path<'a> {
         }
     }
 
-    /// The product after `energy` J per kg in.
-    fn at(&self, energy: f64) -> Result<Point, InputError> {
+    /// Where the product is after `energy` J per kg in, before any temperature is searched for.
+    fn place(&self, energy: f64) -> Place {
         let energy = energy.clamp(0.0, self.total());
         // The first heating stage: all of the path when nothing dries, else up to the boiling point.
         if !self.drying || (self.heat_one > 0.0 && energy < self.heat_one) {
-            let stage_end_c = if self.drying { self.evaporation_temp_c } else { self.outlet_temp_c };
-            let temp_c = temperature_at_enthalpy(
-                |temp_c| self.wet_enthalpy.enthalpy_j_per_kg(temp_c),
-                self.inlet_enthalpy + energy,
-                (self.inlet_temp_c, self.inlet_enthalpy),
-                (stage_end_c, self.inlet_enthalpy + self.heat_one),
-            )?;
-            return Ok(Point {
-                temp_c,
-                moisture_wb: self.inlet_moisture_wb,
-                water_removed_per_kg_in: 0.0,
-                stage: Stage::Heating,
-            });
+            return Place::Heating { enthalpy: self.inlet_enthalpy + energy };
         }
         // From here on energy - heat_one >= 0, also when heat_one < 0 (the flash at the inlet).
         let after_heating = energy - self.heat_one;
         if after_heating < self.evaporate || self.heat_three <= 0.0 {
             let water = (after_heating / self.latent_heat_j_per_kg).clamp(0.0, self.water_total);
             let moisture = ((self.inlet_moisture_wb - water) / (1.0 - water)).max(self.outlet_moisture_wb);
-            return Ok(Point {
+            return Place::Evaporating(Point {
                 temp_c: self.evaporation_temp_c,
                 moisture_wb: moisture,
                 water_removed_per_kg_in: water,
@@ -363,20 +352,72 @@ impl<'a> Path<'a> {
             });
         }
         let dried = (after_heating - self.evaporate).min(self.heat_three);
-        let dried_enthalpy = self.dried_enthalpy_at_evaporation;
-        let temp_c = temperature_at_enthalpy(
-            |temp_c| self.dried_enthalpy.enthalpy_j_per_kg(temp_c),
-            dried_enthalpy + dried / self.out_per_in,
-            (self.evaporation_temp_c, dried_enthalpy),
-            (self.outlet_temp_c, dried_enthalpy + self.heat_three / self.out_per_in),
-        )?;
-        Ok(Point {
-            temp_c,
-            moisture_wb: self.outlet_moisture_wb,
-            water_removed_per_kg_in: self.water_total,
-            stage: Stage::HeatingDried,
-        })
+        Place::HeatingDried { enthalpy: self.dried_enthalpy_at_evaporation + dried / self.out_per_in }
     }
+
+    /// The product after `energy` J per kg in.
+    fn at(&self, energy: f64) -> Result<Point, InputError> {
+        match self.place(energy) {
+            Place::Heating { enthalpy } => {
+                let stage_end_c = if self.drying { self.evaporation_temp_c } else { self.outlet_temp_c };
+                let temp_c = temperature_at_enthalpy(
+                    |temp_c| self.wet_enthalpy.enthalpy_j_per_kg(temp_c),
+                    enthalpy,
+                    (self.inlet_temp_c, self.inlet_enthalpy),
+                    (stage_end_c, self.inlet_enthalpy + self.heat_one),
+                )?;
+                Ok(Point {
+                    temp_c,
+                    moisture_wb: self.inlet_moisture_wb,
+                    water_removed_per_kg_in: 0.0,
+                    stage: Stage::Heating,
+                })
+            }
+            Place::Evaporating(point) => Ok(point),
+            Place::HeatingDried { enthalpy } => {
+                let dried_enthalpy = self.dried_enthalpy_at_evaporation;
+                let temp_c = temperature_at_enthalpy(
+                    |temp_c| self.dried_enthalpy.enthalpy_j_per_kg(temp_c),
+                    enthalpy,
+                    (self.evaporation_temp_c, dried_enthalpy),
+                    (self.outlet_temp_c, dried_enthalpy + self.heat_three / self.out_per_in),
+                )?;
+                Ok(Point {
+                    temp_c,
+                    moisture_wb: self.outlet_moisture_wb,
+                    water_removed_per_kg_in: self.water_total,
+                    stage: Stage::HeatingDried,
+                })
+            }
+        }
+    }
+
+    /// The stage and the moisture after `energy` J per kg in: what [`Path::at`] gives for them,
+    /// without the temperature search.
+    fn stage_at(&self, energy: f64) -> StageAt {
+        match self.place(energy) {
+            Place::Heating { .. } => StageAt { stage: Stage::Heating, moisture_wb: self.inlet_moisture_wb },
+            Place::Evaporating(point) => StageAt { stage: point.stage, moisture_wb: point.moisture_wb },
+            Place::HeatingDried { .. } => StageAt { stage: Stage::HeatingDried, moisture_wb: self.outlet_moisture_wb },
+        }
+    }
+}
+
+/// Where on the path a product is ([`Path::place`]).
+enum Place {
+    /// Heating the wet product, to this enthalpy per kg, J/kg.
+    Heating { enthalpy: f64 },
+    /// Evaporating at T_e: the state needs no search.
+    Evaporating(Point),
+    /// Heating the dried product, to this enthalpy per kg of dried product, J/kg.
+    HeatingDried { enthalpy: f64 },
+}
+
+/// The stage and moisture of a state without its temperature.
+#[derive(Debug, Clone, Copy, PartialEq)]
+struct StageAt {
+    stage: Stage,
+    moisture_wb: f64,
 }
 
 /// The temperature between `start.0` and `end.0` at which the rising function `enthalpy` reaches
@@ -449,45 +490,111 @@ struct Optics {
 struct Marcher<'a> {
     input: MarchInput<'a>,
     path: Path<'a>,
+    /// The product's permittivity at the inlet and at the outlet moisture (the same when nothing
+    /// dries): every zone of a heating stage is at one of the two.
+    permittivity_at: [ProductPermittivity<'a>; 2],
     capacitive: bool,
     /// The bed's stack, built once for all zones and passes.
     bed: Bed,
     /// Layered solutions by permittivity: a product whose permittivity does not change along the
     /// tunnel (a constant or a flat table) is solved once, not once per zone and pass.
-    optics_by_eps: HashMap<(u64, u64), Optics>,
+    optics_by_eps: HashMap<(u64, u64), Optics, BitsHash>,
     /// eps'' on the whole-kelvin grid of the runaway windows, by (moisture, temperature).
-    loss_on_grid: RefCell<HashMap<(u64, i32), f64>>,
+    loss_on_grid: RefCell<HashMap<(u64, i32), f64, BitsHash>>,
 }
 
-/// Boundary states (N + 1, inlet first) and energy-midpoint states (N) for a split.
+/// The hasher of the march's lookups, keyed by the bits of numbers it computed itself (no key
+/// comes from outside, so nothing needs the default hasher's resistance to chosen keys, and its
+/// cost was a few per cent of a 200-zone plan): a multiply-rotate mix of each word (the FxHash
+/// step), folded so that the high bits reach the low ones.
+#[derive(Debug, Default, Clone, Copy)]
+struct BitsHasher(u64);
+
+type BitsHash = BuildHasherDefault<BitsHasher>;
+
+impl BitsHasher {
+    const MULTIPLIER: u64 = 0x517c_c1b7_2722_0a95;
+
+    fn add(&mut self, word: u64) {
+        self.0 = (self.0.rotate_left(5) ^ word).wrapping_mul(Self::MULTIPLIER);
+    }
+}
+
+impl Hasher for BitsHasher {
+    fn write(&mut self, bytes: &[u8]) {
+        for chunk in bytes.chunks(8) {
+            let mut word = [0_u8; 8];
+            word[..chunk.len()].copy_from_slice(chunk);
+            self.add(u64::from_le_bytes(word));
+        }
+    }
+
+    fn write_u64(&mut self, word: u64) {
+        self.add(word);
+    }
+
+    fn write_i32(&mut self, word: i32) {
+        self.add(u64::from(word as u32));
+    }
+
+    fn finish(&self) -> u64 {
+        self.0 ^ (self.0 >> 32)
+    }
+}
+
+/// Boundary states (N + 1, inlet first) and the stages at the energy midpoints (N) for a split.
 struct States {
     boundaries: Vec<Point>,
-    midpoints: Vec<Point>,
+    midpoints: Vec<StageAt>,
+}
+
+/// The net energy per kg in at the start and at the end of each zone for a split, J/kg: the
+/// running sum of the shares of `total`, the last end being `total` exactly, whatever the rounding
+/// of the sum.
+fn zone_energies(shares: &[f64], total: f64) -> impl Iterator<Item = (f64, f64)> + '_ {
+    let mut cumulative = 0.0;
+    shares.iter().enumerate().map(move |(index, share)| {
+        let before = cumulative;
+        cumulative += share * total;
+        if index + 1 == shares.len() {
+            cumulative = total;
+        }
+        (before, cumulative)
+    })
 }
 
 impl Marcher<'_> {
+    /// The energy-midpoint states of a split (all a pass needs; the boundaries are worked out
+    /// once, for the final split, by [`Marcher::states`]).
+    fn midpoints(&self, shares: &[f64]) -> Result<Vec<Point>, InputError> {
+        zone_energies(shares, self.path.total()).map(|(before, after)| self.path.at(0.5 * (before + after))).collect()
+    }
+
+    /// The final split's boundaries, and the stages at its midpoints (the zones read no midpoint
+    /// temperature: their permittivities are those of the pass before).
     fn states(&self, shares: &[f64]) -> Result<States, InputError> {
         let total = self.path.total();
         let mut boundaries = Vec::with_capacity(shares.len() + 1);
-        let mut midpoints = Vec::with_capacity(shares.len());
         boundaries.push(self.path.at(0.0)?);
-        let mut cumulative = 0.0;
-        for (index, share) in shares.iter().enumerate() {
-            let before = cumulative;
-            cumulative += share * total;
-            // The last boundary is the end of the path exactly, whatever the rounding of the sum.
-            if index + 1 == shares.len() {
-                cumulative = total;
-            }
-            midpoints.push(self.path.at(0.5 * (before + cumulative))?);
-            boundaries.push(self.path.at(cumulative)?);
+        for (_, after) in zone_energies(shares, total) {
+            boundaries.push(self.path.at(after)?);
         }
+        let midpoints =
+            zone_energies(shares, total).map(|(before, after)| self.path.stage_at(0.5 * (before + after))).collect();
         Ok(States { boundaries, midpoints })
     }
 
-    fn optics(&mut self, point: &Point) -> Result<Optics, InputError> {
+    /// The product's permittivity at a state (`Product::permittivity_value`, bit for bit).
+    fn permittivity(&self, temp_c: f64, moisture_wb: f64) -> Result<ComplexPermittivity, InputError> {
         let input = &self.input;
-        let eps = input.product.permittivity_value(input.frequency_hz, point.temp_c, point.moisture_wb)?;
+        match self.permittivity_at.iter().find(|curve| curve.moisture_wb().to_bits() == moisture_wb.to_bits()) {
+            Some(curve) => curve.value(input.frequency_hz, temp_c),
+            None => input.product.permittivity_value(input.frequency_hz, temp_c, moisture_wb),
+        }
+    }
+
+    fn optics(&mut self, point: &Point) -> Result<Optics, InputError> {
+        let eps = self.permittivity(point.temp_c, point.moisture_wb)?;
         let key = (eps.eps_real.to_bits(), eps.eps_imag.to_bits());
         if let Some(optics) = self.optics_by_eps.get(&key) {
             return Ok(*optics);
@@ -528,7 +635,7 @@ impl Marcher<'_> {
     /// zone's temperature range widened to at least [`RUNAWAY_WINDOW_K`] and out to whole kelvins,
     /// so that neighbouring zones share their lookups (a fine division costs no more lookups than
     /// the kelvins the product crosses).
-    fn runaway(&self, entry: &Point, exit: &Point, mid: &Point) -> Result<bool, InputError> {
+    fn runaway(&self, entry: &Point, exit: &Point, mid: &StageAt) -> Result<bool, InputError> {
         let span = exit.temp_c - entry.temp_c;
         if span.is_nan() || span <= TEMPERATURE_TOLERANCE_K {
             return Ok(false);
@@ -557,8 +664,7 @@ impl Marcher<'_> {
         if let Some(loss) = self.loss_on_grid.borrow().get(&key) {
             return Ok(*loss);
         }
-        let input = &self.input;
-        let loss = input.product.permittivity_value(input.frequency_hz, temp_c, moisture_wb)?.eps_imag;
+        let loss = self.permittivity(temp_c, moisture_wb)?.eps_imag;
         self.loss_on_grid.borrow_mut().insert(key, loss);
         Ok(loss)
     }
@@ -570,11 +676,15 @@ pub fn march(input: &MarchInput) -> Result<ZoneMarch, InputError> {
     let mut marcher = Marcher {
         input: *input,
         path: Path::new(input)?,
+        permittivity_at: [
+            input.product.permittivity_curve(input.inlet_moisture_wb),
+            input.product.permittivity_curve(input.outlet_moisture_wb),
+        ],
         capacitive: is_capacitive(input.frequency_hz),
         bed: Bed::new(input.scenario),
         // Room for a pass's zones at once, so the map does not regrow zone by zone.
-        optics_by_eps: HashMap::with_capacity(count.min(4096)),
-        loss_on_grid: RefCell::new(HashMap::new()),
+        optics_by_eps: HashMap::with_capacity_and_hasher(count.min(4096), BitsHash::default()),
+        loss_on_grid: RefCell::new(HashMap::default()),
     };
     let absorbed_kw = input.energy.absorbed_kw;
     let even = 1.0 / count as f64;
@@ -582,11 +692,12 @@ pub fn march(input: &MarchInput) -> Result<ZoneMarch, InputError> {
     let mut passes = 0;
     let mut converged = false;
     let mut optics: Vec<Optics>;
-    // The states always belong to `shares`; the optics to the states of the pass before.
-    let mut states = marcher.states(&shares)?;
+    // Each pass takes the optics at the midpoints of `shares`, then moves `shares` on: the final
+    // optics belong to the split before the final one.
     loop {
         passes += 1;
-        optics = states.midpoints.iter().map(|point| marcher.optics(point)).collect::<Result<_, _>>()?;
+        let midpoints = marcher.midpoints(&shares)?;
+        optics = midpoints.iter().map(|point| marcher.optics(point)).collect::<Result<_, _>>()?;
         if marcher.capacitive {
             // The split does not depend on the state: one pass is the answer.
             converged = true;
@@ -600,10 +711,7 @@ pub fn march(input: &MarchInput) -> Result<ZoneMarch, InputError> {
             vec![even; count]
         };
         let largest_move = next.iter().zip(&shares).map(|(new, old)| (new - old).abs()).fold(0.0, f64::max) / even;
-        if next != shares {
-            shares = next;
-            states = marcher.states(&shares)?;
-        }
+        shares = next;
         if largest_move <= DISTRIBUTION_TOLERANCE {
             converged = true;
             break;
@@ -612,6 +720,7 @@ pub fn march(input: &MarchInput) -> Result<ZoneMarch, InputError> {
             break;
         }
     }
+    let states = marcher.states(&shares)?;
     let zones = build_zones(&marcher, &states, &optics, &shares, absorbed_kw)?;
     let mean_coupling = if marcher.capacitive {
         input.applicator_efficiency
@@ -762,6 +871,50 @@ mod tests {
     use crate::sizing::tunnel::{lay_out, ResidenceRule, TunnelInput};
     use approx::assert_relative_eq;
 
+    #[test]
+    fn the_bits_hasher_tells_neighbouring_keys_apart() {
+        use std::hash::{BuildHasher, Hash};
+        let hash = |key: &dyn Fn(&mut BitsHasher)| {
+            let mut hasher = BitsHash::default().build_hasher();
+            key(&mut hasher);
+            hasher.finish()
+        };
+        // Permittivities one bit apart and whole-kelvin temperatures side by side: the keys the
+        // march meets. Every hash differs, also in the low bits a table picks its bucket by.
+        let mut seen = std::collections::HashSet::new();
+        for step in 0..64_u64 {
+            let eps = (12.5_f64.to_bits() + step, 4.25_f64.to_bits());
+            assert!(seen.insert(hash(&|h| eps.hash(h))));
+            let grid = (0.75_f64.to_bits(), step as i32 - 30);
+            assert!(seen.insert(hash(&|h| grid.hash(h))));
+        }
+        let low_bits: std::collections::HashSet<u64> = seen.iter().map(|h| h & 0x7f).collect();
+        assert!(low_bits.len() > 64, "{} distinct low bits", low_bits.len());
+        // The byte path hashes the same words as the word path.
+        assert_eq!(hash(&|h| h.write(&7_u64.to_le_bytes())), hash(&|h| h.write_u64(7)));
+        // A map keyed by bits finds what it holds.
+        let mut map: HashMap<(u64, i32), f64, BitsHash> = HashMap::default();
+        map.insert((1, 2), 3.0);
+        assert_eq!(map.get(&(1, 2)), Some(&3.0));
+        assert_eq!(map.get(&(2, 1)), None);
+    }
+
+    #[test]
+    fn zone_energies_run_from_zero_to_the_total_exactly() {
+        // Shares that do not sum to 1 in floating point (0.1 ten times is 0.9999999999999999).
+        let shares = [0.1; 10];
+        let energies: Vec<(f64, f64)> = zone_energies(&shares, 3.0).collect();
+        assert_eq!(energies.len(), 10);
+        assert_eq!(energies[0].0, 0.0);
+        assert_eq!(energies[9].1, 3.0);
+        for pair in energies.windows(2) {
+            // Each zone starts where the one before ends, bit for bit.
+            assert_eq!(pair[0].1.to_bits(), pair[1].0.to_bits());
+        }
+        assert_relative_eq!(energies[4].1, 1.5, max_relative = 1e-12);
+        assert_eq!(zone_energies(&[], 3.0).count(), 0);
+    }
+
     fn constant_product() -> Product {
         crate::plan::product::by_hand_constant_product()
     }
@@ -840,6 +993,29 @@ mod tests {
             assert_relative_eq!(end.temp_c, 120.0, epsilon = 1e-9);
             assert_eq!(end.moisture_wb, 0.2);
         });
+    }
+
+    #[test]
+    fn the_stage_alone_is_the_states_stage_and_moisture() {
+        // Along both drying paths (three stages; a flash at the inlet), at and between the stage
+        // ends: exact, the same branch computes both.
+        for (inlet_c, outlet_c) in [(20.0, 120.0), (110.0, 90.0)] {
+            with_path(inlet_c, outlet_c, |path| {
+                let total = path.total();
+                let ends = [0.0, path.heat_one, path.heat_one + path.evaporate, total];
+                let mut energies: Vec<f64> = (0..=64).map(|step| total * f64::from(step) / 64.0).collect();
+                energies.extend(ends.iter().flat_map(|&end| [end, end - 1e-3, end + 1e-3]));
+                let mut stages = std::collections::HashSet::new();
+                for energy in energies {
+                    let point = path.at(energy).unwrap();
+                    let stage = path.stage_at(energy);
+                    assert_eq!(stage.stage, point.stage, "{energy}");
+                    assert_eq!(stage.moisture_wb.to_bits(), point.moisture_wb.to_bits(), "{energy}");
+                    stages.insert(point.stage.name());
+                }
+                assert_eq!(stages.len(), if inlet_c < 100.0 { 3 } else { 1 });
+            });
+        }
     }
 
     #[test]

@@ -67,7 +67,8 @@ proptest! {
         let material = materials[index % materials.len()];
         let state = MaterialState { temp_c: t, moisture_wb: m, salt_pct: s };
         let lookup = permittivity(material, f, &state).map(|lookup| lookup.eps);
-        prop_assert_eq!(permittivity_value(material, f, &state), lookup);
+        prop_assert_eq!(permittivity_value(material, f, &state), lookup.clone());
+        prop_assert_eq!(material.permittivity_curve(m, s).value(f, t), lookup);
     }
 
     #[test]
@@ -112,6 +113,8 @@ fn the_value_alone_matches_every_material_on_a_grid() {
                         let state = MaterialState { temp_c: t, moisture_wb: m, salt_pct: s };
                         let lookup = permittivity(material, f, &state).map(|lookup| lookup.eps);
                         assert_eq!(permittivity_value(material, f, &state), lookup, "{} {f} {state:?}", material.name);
+                        let curve = material.permittivity_curve(m, s).value(f, t);
+                        assert_eq!(curve, lookup, "curve: {} {f} {state:?}", material.name);
                     }
                 }
             }

@@ -51,6 +51,7 @@ impl<'a> LayerSamples<'a> {
 
     /// Local depth of sample `index`, m. Exact faces at both ends: the last sample sits on the
     /// bottom face, not near it.
+    #[inline]
     fn depth(&self, index: usize) -> f64 {
         let thickness_m = self.solved.slabs[self.layer_index].thickness_m;
         let last = self.samples - 1;
@@ -74,7 +75,7 @@ impl<'a> LayerSamples<'a> {
         let rest_m = slab.thickness_m - local_m;
         let to_bottom = propagate(rest_m, last - index);
         let mut density = 0.0;
-        for (side, share, one) in &self.solved.sides {
+        for (side, share, one) in self.solved.sides() {
             let field = match side {
                 FeedSide::Top => {
                     let (forward, backward) = one.amplitudes[self.layer_index];
@@ -129,8 +130,16 @@ impl<'a> LayerSamples<'a> {
         })
     }
 
-    /// The highest sample's density (what the maximum over [`LayerSamples::each`] gives).
+    /// [`LayerSamples::peak_with`] in new vectors.
+    #[cfg(test)]
     pub(super) fn peak(&self) -> f64 {
+        self.peak_with(&mut Vec::new(), &mut Vec::new())
+    }
+
+    /// The highest sample's density (what the maximum over [`LayerSamples::each`] gives), working
+    /// in `powers` and `values` (whatever they hold is replaced; a caller solving many stacks
+    /// passes the same two and keeps their room).
+    pub(super) fn peak_with(&self, powers: &mut Vec<Complex>, values: &mut Vec<f64>) -> f64 {
         if self.solved.slabs[self.layer_index].eps_imag == 0.0 {
             return 0.0;
         }
@@ -139,13 +148,20 @@ impl<'a> LayerSamples<'a> {
             let density = self.exact(index);
             highest = Some(highest.map_or(density, |max| max.max(density)));
         };
-        match self.approximate() {
-            Some(approximate) => {
-                let values = &approximate.values;
-                let lower =
-                    values.iter().map(|&value| value - approximate.error(value)).fold(f64::NEG_INFINITY, f64::max);
+        match self.approximate_into(powers, values) {
+            Some(shared_error) => {
+                let error = |value: f64| error_bound(shared_error, value);
+                // Every value and bound is finite here (`approximate` says so), so a plain comparison
+                // is `f64::max` (which the size-optimised build calls out of line).
+                let lower = values.iter().map(|&value| value - error(value)).fold(f64::NEG_INFINITY, |lower, bound| {
+                    if bound > lower {
+                        bound
+                    } else {
+                        lower
+                    }
+                });
                 for (index, &value) in values.iter().enumerate() {
-                    if value + approximate.error(value) >= lower {
+                    if value + error(value) >= lower {
                         evaluate(index);
                     }
                 }
@@ -155,9 +171,18 @@ impl<'a> LayerSamples<'a> {
         highest.unwrap_or(0.0)
     }
 
-    /// Every sample's density from the powers of one step, with its error bound; `None` when the
-    /// bound cannot rank them.
+    /// [`LayerSamples::approximate_into`] as an [`Approximation`].
+    #[cfg(test)]
     pub(super) fn approximate(&self) -> Option<Approximation> {
+        let mut values = Vec::new();
+        let shared_error = self.approximate_into(&mut Vec::new(), &mut values)?;
+        Some(Approximation { values, shared_error })
+    }
+
+    /// Every sample's density from the powers of one step (in `values`, the powers in `powers`),
+    /// with the part of its error bound common to all samples (see [`error_bound`]); `None` when
+    /// the bound cannot rank them.
+    fn approximate_into(&self, powers: &mut Vec<Complex>, values: &mut Vec<f64>) -> Option<f64> {
         let slab = self.solved.slabs[self.layer_index];
         let (k0, count, samples) = (self.solved.k0, self.solved.slabs.len(), self.samples);
         let phase = k0 * slab.thickness_m * (slab.index.re.abs() + slab.index.im.abs());
@@ -167,16 +192,19 @@ impl<'a> LayerSamples<'a> {
             return None;
         }
         let step = propagator(k0, slab.index, slab.thickness_m / (samples - 1) as f64);
-        let mut powers = Vec::with_capacity(samples);
+        powers.clear();
+        powers.reserve(samples);
         let mut power = Complex::ONE;
         for _ in 0..samples {
             powers.push(power);
             power = power * step;
         }
-        let mut values = vec![0.0; samples];
+        let powers = powers.as_slice();
+        values.clear();
+        values.resize(samples, 0.0);
         let mut shared_error = 0.0;
         let mut previous: Option<(f64, Complex, Complex)> = None;
-        for (side, share, one) in &self.solved.sides {
+        for (side, share, one) in self.solved.sides() {
             let (forward, backward) = match side {
                 FeedSide::Top => one.amplitudes[self.layer_index],
                 FeedSide::Bottom => one.amplitudes[count - 1 - self.layer_index],
@@ -188,14 +216,15 @@ impl<'a> LayerSamples<'a> {
             shared_error +=
                 share * (4.0 * q * reach * field_error + 16.0 * ROUNDOFF * q * reach * reach + UNDERFLOW_FLOOR_PER_M);
             let weight = share * q;
-            if *side == FeedSide::Bottom && previous.is_some_and(|seen| same_bits(seen, (weight, forward, backward))) {
+            if side == FeedSide::Bottom && previous.is_some_and(|seen| same_bits(seen, (weight, forward, backward))) {
                 // A bed fed alike from both sides: the feed from below is the one from above read
                 // backwards, so the sum over the sides is symmetric.
-                for index in 0..samples / 2 {
-                    let mirror = samples - 1 - index;
-                    let sum = values[index] + values[mirror];
-                    values[index] = sum;
-                    values[mirror] = sum;
+                // Pairs (i, S - 1 - i) for i < S / 2; an odd middle sample is in neither half.
+                let (head, tail) = values.split_at_mut(samples / 2);
+                for (value, mirror) in head.iter_mut().zip(tail.iter_mut().rev()) {
+                    let sum = *value + *mirror;
+                    *value = sum;
+                    *mirror = sum;
                 }
                 if samples % 2 == 1 {
                     values[samples / 2] *= 2.0;
@@ -204,18 +233,19 @@ impl<'a> LayerSamples<'a> {
             }
             // E ~ a w^i + c w^(S-1-i) at sample i, for a wave entering at the top face (a feed from
             // below enters at the last sample, so its powers run the other way).
-            let mut add = |(value, (&near, &far)): (&mut f64, (&Complex, &Complex))| {
+            // (A plain loop: under the size-optimised build a closure here stayed a call per sample.)
+            for (index, (value, &power)) in values.iter_mut().zip(powers).enumerate() {
+                let mirrored = powers[samples - 1 - index];
+                let (near, far) = match side {
+                    FeedSide::Top => (power, mirrored),
+                    FeedSide::Bottom => (mirrored, power),
+                };
                 *value += weight * (forward * near + backward * far).norm_sqr();
-            };
-            match side {
-                FeedSide::Top => values.iter_mut().zip(powers.iter().zip(powers.iter().rev())).for_each(&mut add),
-                FeedSide::Bottom => values.iter_mut().zip(powers.iter().rev().zip(powers.iter())).for_each(&mut add),
             }
             previous = Some((weight, forward, backward));
         }
-        let approximation = Approximation { values, shared_error };
-        let finite = shared_error.is_finite() && approximation.values.iter().all(|value| value.is_finite());
-        finite.then_some(approximation)
+        let finite = shared_error.is_finite() && values.iter().all(|value| value.is_finite());
+        finite.then_some(shared_error)
     }
 }
 
@@ -228,17 +258,25 @@ fn same_bits(a: (f64, Complex, Complex), b: (f64, Complex, Complex)) -> bool {
 
 /// Approximate densities of a layer's samples and the bound on their distance from the exact
 /// ones, 1/m.
+#[cfg(test)]
 pub(super) struct Approximation {
     pub(super) values: Vec<f64>,
     /// The part of the bound common to all samples.
     shared_error: f64,
 }
 
+#[cfg(test)]
 impl Approximation {
     /// The bound for a sample of approximate density `value`: the shared part and
     /// [`VALUE_ROUNDING`] of the value.
     #[inline]
     pub(super) fn error(&self, value: f64) -> f64 {
-        self.shared_error + VALUE_ROUNDING * value.abs()
+        error_bound(self.shared_error, value)
     }
+}
+
+/// The bound for a sample of approximate density `value` given the shared part of the bound.
+#[inline]
+fn error_bound(shared_error: f64, value: f64) -> f64 {
+    shared_error + VALUE_ROUNDING * value.abs()
 }
