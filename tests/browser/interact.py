@@ -775,6 +775,14 @@ def run(driver: Driver, base_url: str, cli: Cli, shots: str, request_log: str) -
     driver.viewport(1366, 768)
     driver.open(base_url.rstrip("/") + f"/?demo={DEMO}")
     driver.wait("the plan", lambda: driver.script('return !!document.querySelector(\'[data-testid="result-generator_count"]\')'))
+    shown, booting = driver.script(
+        "return [document.body.innerText.includes(arguments[0]), !!document.getElementById('boot-status')]",
+        "Tempering frozen beef blocks at 915 MHz",
+    )
+    if not shown:
+        raise Check(f"?demo={DEMO} opened, but its title is not on the page")
+    if booting:
+        raise Check("the app is running, but the boot message is still on the page")
     # The service worker keeps the page for offline reuse with one request of its own (sw.js
     # and the page): that is part of the load, so wait for it before counting.
     kept = driver.call("POST", f"{driver.session}/execute/async", {"script": (
