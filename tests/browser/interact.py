@@ -16,6 +16,7 @@ Environment:
 """
 
 import base64
+import contextlib
 import json
 import os
 import shutil
@@ -59,9 +60,10 @@ class Check(Exception):
 
 
 def binary(env_name: str, *names: str) -> str:
-    found = os.environ.get(env_name) or next(filter(None, map(shutil.which, names)), None)
+    given = os.environ.get(env_name)
+    found = shutil.which(given) if given else next(filter(None, map(shutil.which, names)), None)
     if not found:
-        raise Check(f"no {names[0]} found (set {env_name})")
+        raise Check(f"{env_name}={given} is not an executable" if given else f"no {names[0]} found (set {env_name})")
     return found
 
 
@@ -232,6 +234,29 @@ class Driver:
 
     def wait_text(self, testid: str, wanted: str) -> str:
         return self.wait(f"{testid} to contain {wanted!r}", lambda: wanted in self.text(testid) and self.text(testid))
+
+
+@contextlib.contextmanager
+def browser_session(shots: str = ""):
+    """Headless Chromium driven through a chromedriver of its own, on a fresh profile; both stop
+    when the block ends, however it ends. Raises Check when either binary is missing."""
+    chromium = binary("CHROMIUM", "chromium", "chromium-browser", "google-chrome")
+    chromedriver = binary("CHROMEDRIVER", "chromedriver")
+    port = free_port()
+    with tempfile.TemporaryDirectory() as profile_dir:
+        process = subprocess.Popen([chromedriver, f"--port={port}"], stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
+        driver = Driver(port, shots)
+        try:
+            driver.wait_ready()
+            driver.start(chromium, profile_dir)
+            yield driver
+        finally:
+            try:
+                driver.stop()
+            except (Check, OSError):
+                pass
+            process.terminate()
+            process.wait(timeout=10)
 
 
 # -- the page's own scenario and plan ---------------------------------------------------------
@@ -860,36 +885,19 @@ def main() -> int:
     os.makedirs(shots, exist_ok=True)
     started = time.monotonic()
     try:
-        chromium = binary("CHROMIUM", "chromium", "chromium-browser", "google-chrome")
-        chromedriver = binary("CHROMEDRIVER", "chromedriver")
         cli = Cli(os.environ.get("DOUBLEPRIME_CLI") or os.path.join(REPO, "target", "debug", "doubleprime"))
+        with browser_session(shots) as driver:
+            try:
+                run(driver, base_url, cli, shots, os.environ.get("REQUEST_LOG", ""))
+            except Check:
+                try:
+                    driver.screenshot(os.path.join(shots, "failure.png"))
+                except (Check, OSError):
+                    pass
+                raise
     except Check as problem:
         print(f"interact: FAILED: {problem}", file=sys.stderr)
         return 1
-    port = free_port()
-    with tempfile.TemporaryDirectory() as profile_dir:
-        driver_process = subprocess.Popen(
-            [chromedriver, f"--port={port}"], stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL
-        )
-        driver = Driver(port, shots)
-        try:
-            driver.wait_ready()
-            driver.start(chromium, profile_dir)
-            run(driver, base_url, cli, shots, os.environ.get("REQUEST_LOG", ""))
-        except Check as problem:
-            print(f"interact: FAILED: {problem}", file=sys.stderr)
-            try:
-                driver.screenshot(os.path.join(shots, "failure.png"))
-            except (Check, OSError):
-                pass
-            return 1
-        finally:
-            try:
-                driver.stop()
-            except (Check, OSError):
-                pass
-            driver_process.terminate()
-            driver_process.wait(timeout=10)
     print(f"interact: all checks passed in {time.monotonic() - started:.0f} s")
     return 0
 

@@ -20,7 +20,7 @@ import tempfile
 import time
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
-from interact import DEMO, REPO, Check, Cli, Driver, binary, free_port, page_scenario, settled  # noqa: E402
+from interact import DEMO, REPO, Check, Cli, Driver, binary, browser_session, page_scenario, settled  # noqa: E402
 
 PAYLOAD = '<script>window.__pwned = 1</script><img src="x" onerror="window.__pwned = 1">&amp;"\''
 # Recorded in every document before its own scripts run (DevTools scripts are outside the CSP).
@@ -413,35 +413,19 @@ def main() -> int:
     sys.stdout.reconfigure(line_buffering=True)
     dist = sys.argv[1]
     started = time.monotonic()
+    server = Server(dist)
     try:
-        chromium = binary("CHROMIUM", "chromium", "chromium-browser", "google-chrome")
-        chromedriver = binary("CHROMEDRIVER", "chromedriver")
         binary("PDFINFO", "pdfinfo")
         cli = Cli(os.environ.get("DOUBLEPRIME_CLI") or os.path.join(REPO, "target", "debug", "doubleprime"))
+        with browser_session() as driver:
+            try:
+                server.start()
+                run(driver, server, dist, cli)
+            finally:
+                server.stop()
     except Check as problem:
         print(f"persist: FAILED: {problem}", file=sys.stderr)
         return 1
-    port = free_port()
-    server = Server(dist)
-    with tempfile.TemporaryDirectory() as profile_dir:
-        driver_process = subprocess.Popen([chromedriver, f"--port={port}"], stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
-        driver = Driver(port)
-        try:
-            server.start()
-            driver.wait_ready()
-            driver.start(chromium, profile_dir)
-            run(driver, server, dist, cli)
-        except Check as problem:
-            print(f"persist: FAILED: {problem}", file=sys.stderr)
-            return 1
-        finally:
-            try:
-                driver.stop()
-            except (Check, OSError):
-                pass
-            driver_process.terminate()
-            driver_process.wait(timeout=10)
-            server.stop()
     print(f"persist: all checks passed in {time.monotonic() - started:.0f} s")
     return 0
 

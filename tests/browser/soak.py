@@ -26,13 +26,11 @@ Environment: DOUBLEPRIME_CLI, CHROMIUM, CHROMEDRIVER as for interact.py.
 import json
 import os
 import random
-import subprocess
 import sys
-import tempfile
 import time
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
-from interact import DEMO, REPO, Check, Cli, Driver, binary, check_headline, free_port, page_scenario  # noqa: E402
+from interact import DEMO, REPO, Check, Cli, Driver, browser_session, check_headline, page_scenario  # noqa: E402
 
 EDITS = 10_000
 # Edits per batch, and every how many batches one is typed: about 1,000 frames and 2,500 edits
@@ -417,32 +415,12 @@ def main() -> int:
     base_url = sys.argv[1]
     started = time.monotonic()
     try:
-        chromium = binary("CHROMIUM", "chromium", "chromium-browser", "google-chrome")
-        chromedriver = binary("CHROMEDRIVER", "chromedriver")
         cli = Cli(os.environ.get("DOUBLEPRIME_CLI") or os.path.join(REPO, "target", "debug", "doubleprime"))
+        with browser_session() as driver:
+            run(driver, base_url, cli)
     except Check as problem:
         print(f"soak: FAILED: {problem}", file=sys.stderr)
         return 1
-    port = free_port()
-    with tempfile.TemporaryDirectory() as profile_dir:
-        driver_process = subprocess.Popen(
-            [chromedriver, f"--port={port}"], stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL
-        )
-        driver = Driver(port)
-        try:
-            driver.wait_ready()
-            driver.start(chromium, profile_dir)
-            run(driver, base_url, cli)
-        except Check as problem:
-            print(f"soak: FAILED: {problem}", file=sys.stderr)
-            return 1
-        finally:
-            try:
-                driver.stop()
-            except (Check, OSError):
-                pass
-            driver_process.terminate()
-            driver_process.wait(timeout=10)
     print(f"soak: all checks passed in {time.monotonic() - started:.0f} s")
     return 0
 

@@ -25,11 +25,10 @@ import os
 import statistics
 import subprocess
 import sys
-import tempfile
 import time
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
-from interact import DEMO, REPO, Check, Driver, binary, free_port  # noqa: E402
+from interact import DEMO, REPO, Check, Driver, binary, browser_session  # noqa: E402
 from persist import Server, cdp  # noqa: E402
 
 # The budgets of the project (README, performance section): reported against, never asserted.
@@ -148,41 +147,26 @@ def main() -> int:
     if not 1 <= args.loads <= 100:
         parser.error(f"--loads = {args.loads} is not accepted: valid is 1 to 100")
     sys.stdout.reconfigure(line_buffering=True)
+    server = Server(args.dist)
     try:
-        chromium = binary("CHROMIUM", "chromium", "chromium-browser", "google-chrome")
-        chromedriver = binary("CHROMEDRIVER", "chromedriver")
         if not os.access(args.cli, os.X_OK):
             raise Check(f"no command-line tool at {args.cli}")
+        with browser_session() as driver:
+            try:
+                server.start()
+                started = time.monotonic()
+                result = run(driver, server, args)
+            finally:
+                server.stop()
+        chromium = binary("CHROMIUM", "chromium", "chromium-browser", "google-chrome")
+        result["chromium"] = subprocess.run([chromium, "--version"], capture_output=True, text=True).stdout.strip()
+        os.makedirs(os.path.dirname(os.path.abspath(args.out)), exist_ok=True)
+        with open(args.out, "w", encoding="utf-8") as file:
+            json.dump(result, file, indent=2)
+        print(f"\ntiming: report written to {args.out} ({time.monotonic() - started:.0f} s)")
     except Check as problem:
         print(f"timing: FAILED: {problem}", file=sys.stderr)
         return 1
-    port = free_port()
-    server = Server(args.dist)
-    with tempfile.TemporaryDirectory() as profile_dir:
-        driver_process = subprocess.Popen([chromedriver, f"--port={port}"], stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
-        driver = Driver(port)
-        try:
-            server.start()
-            driver.wait_ready()
-            driver.start(chromium, profile_dir)
-            started = time.monotonic()
-            result = run(driver, server, args)
-            result["chromium"] = subprocess.run([chromium, "--version"], capture_output=True, text=True).stdout.strip()
-            os.makedirs(os.path.dirname(os.path.abspath(args.out)), exist_ok=True)
-            with open(args.out, "w", encoding="utf-8") as file:
-                json.dump(result, file, indent=2)
-            print(f"\ntiming: report written to {args.out} ({time.monotonic() - started:.0f} s)")
-        except Check as problem:
-            print(f"timing: FAILED: {problem}", file=sys.stderr)
-            return 1
-        finally:
-            try:
-                driver.stop()
-            except (Check, OSError):
-                pass
-            driver_process.terminate()
-            driver_process.wait(timeout=10)
-            server.stop()
     return 0
 
 
