@@ -135,8 +135,8 @@ mod tests;
 pub const LAYERS_MAX: usize = 200;
 /// Thickest layer accepted, m.
 pub const THICKNESS_MAX_M: f64 = 10.0;
-/// Lowest frequency accepted, Hz (0.001 MHz).
-pub const FREQUENCY_MIN_HZ: f64 = 1.0e3;
+/// Lowest frequency accepted, Hz (0.001 MHz), as for a plane wave.
+pub const FREQUENCY_MIN_HZ: f64 = crate::physics::waves::FREQUENCY_MIN_HZ;
 /// Highest frequency accepted, Hz (300 GHz, as everywhere in the core).
 pub const FREQUENCY_MAX_HZ: f64 = crate::physics::waves::FREQUENCY_MAX_HZ;
 /// Fewest depth samples per layer (both faces).

@@ -9,12 +9,15 @@
 //! Source: Metaxas & Meredith, Industrial Microwave Heating (IEE 1983), ch. 2 (from memory); the
 //! same forms in shared/sources.md section 4. Non-magnetic materials (mu_r = 1) are assumed.
 
-use crate::error::{require_positive, InputError};
+use crate::error::{require_in, InputError};
 use crate::physics::constants::SPEED_OF_LIGHT_M_PER_S;
 use crate::physics::permittivity::ComplexPermittivity;
 use serde::Serialize;
 use std::f64::consts::{LN_2, PI};
 
+/// Lowest frequency accepted, Hz: 1 kHz (0.001 MHz), far below any dielectric heating band. A
+/// floor above zero: a frequency of a few times 1e-300 Hz would give an infinite wavelength.
+pub const FREQUENCY_MIN_HZ: f64 = 1.0e3;
 /// Highest frequency accepted, Hz: 300 GHz, the top of the microwave range.
 pub const FREQUENCY_MAX_HZ: f64 = 300.0e9;
 
@@ -45,7 +48,7 @@ pub struct WaveProperties {
 
 /// Check a frequency given in Hz (field name `freq_mhz`, since that is how users enter it).
 pub fn checked_frequency_hz(freq_mhz: f64) -> Result<f64, InputError> {
-    require_positive("freq_mhz", freq_mhz, FREQUENCY_MAX_HZ / 1e6).map(|f| f * 1e6)
+    require_in("freq_mhz", freq_mhz, FREQUENCY_MIN_HZ / 1e6, FREQUENCY_MAX_HZ / 1e6).map(|f| f * 1e6)
 }
 
 /// Checked entry point for user input: frequency in MHz and the two parts of the permittivity.
@@ -114,6 +117,16 @@ mod tests {
     use super::*;
     use approx::assert_relative_eq;
     use num_complex::Complex64;
+
+    #[test]
+    fn a_vanishing_frequency_is_refused_by_name() {
+        // Found by the property test in tests/it/physics_properties.rs: 1.1e-308 MHz passed a
+        // "more than 0" check and gave an infinite free-space wavelength.
+        let error = wave_properties_checked(1.1125369292536007e-308, 476.1, 0.0).unwrap_err();
+        assert_eq!(error.field, "freq_mhz");
+        assert_eq!(error.valid, "0.001 to 300000");
+        assert!(wave_properties_checked(0.001, 2.0, 0.1).is_ok());
+    }
 
     /// Independent route: gamma = j k0 sqrt(eps*) computed with the `num-complex` crate.
     fn reference_alpha_beta(frequency_hz: f64, eps: ComplexPermittivity) -> (f64, f64) {
