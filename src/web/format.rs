@@ -18,13 +18,19 @@ pub fn sig(value: f64, digits: u32) -> String {
     let digits = digits.max(1) as i32;
     let magnitude = value.abs().log10().floor() as i32;
     let mut decimals = (digits - 1 - magnitude).max(0) as usize;
-    let mut text = format!("{:.*}", decimals, value.abs());
     // Rounding can carry into a new digit (9.996 -> 10.00): drop the extra decimal.
-    let integer_digits = text.split('.').next().map_or(0, str::len) as i32;
+    let rounded = format!("{:.*}", decimals, value.abs());
+    let integer_digits = rounded.split('.').next().map_or(0, str::len) as i32;
     if decimals > 0 && integer_digits > magnitude.max(0) + 1 {
         decimals -= 1;
-        text = format!("{:.*}", decimals, value.abs());
     }
+    fixed(value, decimals)
+}
+
+/// `value` with exactly `decimals` decimals, "−" for a negative that does not round to zero, and
+/// thousands set apart above four integer digits (chart ticks use it as it is).
+pub fn fixed(value: f64, decimals: usize) -> String {
+    let text = format!("{:.*}", decimals, value.abs());
     let rounds_to_zero = text.chars().all(|c| c == '0' || c == '.');
     let sign = if value < 0.0 && !rounds_to_zero { "\u{2212}" } else { "" };
     let (integer, fraction) = text.split_once('.').map_or((text.as_str(), ""), |(i, f)| (i, f));

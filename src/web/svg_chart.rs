@@ -3,8 +3,7 @@
 //! that goes beside every chart. Concrete structs, no generics: each plot fills a [`Chart`] and
 //! a [`DataTable`] and the page draws them.
 
-use crate::fields::group_thousands;
-use crate::format::exact;
+use crate::format::{exact, fixed};
 use crate::markup::escape;
 use leptos::prelude::*;
 use std::fmt::Write;
@@ -89,7 +88,7 @@ impl Axis {
             (first..=last)
                 .map(|index| {
                     let value = index as f64 * step;
-                    (value, tick_label(value, decimals))
+                    (value, fixed(value, decimals))
                 })
                 .collect()
         }
@@ -140,22 +139,9 @@ fn nice_step(raw: f64) -> f64 {
     nice * power
 }
 
-fn tick_label(value: f64, decimals: usize) -> String {
-    let text = format!("{:.*}", decimals, value.abs());
-    let rounds_to_zero = text.chars().all(|c| c == '0' || c == '.');
-    let sign = if value < 0.0 && !rounds_to_zero { "\u{2212}" } else { "" };
-    let (integer, fraction) = text.split_once('.').map_or((text.as_str(), ""), |(i, f)| (i, f));
-    let integer = if integer.len() > 4 { group_thousands(integer) } else { integer.to_string() };
-    if fraction.is_empty() {
-        format!("{sign}{integer}")
-    } else {
-        format!("{sign}{integer}.{fraction}")
-    }
-}
-
 fn decade_label(value: f64) -> String {
     let power = value.log10().round() as i32;
-    tick_label(value, (-power).max(0) as usize)
+    fixed(value, (-power).max(0) as usize)
 }
 
 /// How a series is drawn.
