@@ -24,6 +24,18 @@ fn optional_number() -> impl Strategy<Value = Option<f64>> {
     prop_oneof![Just(None), any_number().prop_map(Some), (0.0..0.95f64).prop_map(Some)]
 }
 
+/// A library material (by index, wrapped) and a state to look it up at: frequency, temperature,
+/// moisture and salt, each awkward or plausible.
+fn lookup_request() -> impl Strategy<Value = (usize, f64, f64, Option<f64>, Option<f64>)> {
+    (
+        0usize..64,
+        prop_oneof![any_number(), 1e6..1e10f64],
+        prop_oneof![any_number(), -60.0..300.0f64],
+        optional_number(),
+        prop_oneof![Just(None), any_number().prop_map(Some), (0.0..26.0f64).prop_map(Some)],
+    )
+}
+
 fn finite_or_error(result: Result<f64, crate::error::InputError>) -> bool {
     result.map_or(true, f64::is_finite)
 }
@@ -33,14 +45,9 @@ proptest! {
 
     #[test]
     fn permittivity_never_panics_or_returns_nan(
-        index in 0usize..64,
-        f in prop_oneof![any_number(), 1e6..1e10f64],
-        t in prop_oneof![any_number(), -60.0..300.0f64],
-        m in optional_number(),
-        s in prop_oneof![Just(None), any_number().prop_map(Some), (0.0..26.0f64).prop_map(Some)],
+        (index, f, t, m, s) in lookup_request(),
     ) {
-        let materials: Vec<_> = library().iter().collect();
-        let material = materials[index % materials.len()];
+        let material = library().iter().nth(index % library().iter().count()).expect("the library is not empty");
         let state = MaterialState { temp_c: t, moisture_wb: m, salt_pct: s };
         if let Ok(lookup) = permittivity(material, f, &state) {
             prop_assert!(lookup.eps.eps_real.is_finite() && lookup.eps.eps_imag.is_finite());
@@ -57,14 +64,9 @@ proptest! {
 
     #[test]
     fn the_value_alone_is_the_lookups_value_bit_for_bit(
-        index in 0usize..64,
-        f in prop_oneof![any_number(), 1e6..1e10f64],
-        t in prop_oneof![any_number(), -60.0..300.0f64],
-        m in optional_number(),
-        s in prop_oneof![Just(None), any_number().prop_map(Some), (0.0..26.0f64).prop_map(Some)],
+        (index, f, t, m, s) in lookup_request(),
     ) {
-        let materials: Vec<_> = library().iter().collect();
-        let material = materials[index % materials.len()];
+        let material = library().iter().nth(index % library().iter().count()).expect("the library is not empty");
         let state = MaterialState { temp_c: t, moisture_wb: m, salt_pct: s };
         let lookup = permittivity(material, f, &state).map(|lookup| lookup.eps);
         prop_assert_eq!(permittivity_value(material, f, &state), lookup.clone());
